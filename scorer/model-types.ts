@@ -1,0 +1,73 @@
+/**
+ * The in-memory model that the trainer produces and the scorer applies. The
+ * artifact (schemas/scorer-artifact.schema.json) is a compact serialization of
+ * these; the scorer's traversal over them is the one the trainer's leaf encoder
+ * calls, so training and serving compute the same thing by construction.
+ */
+
+/**
+ * The inputs a model reads, in a fixed order. Numeric features come first
+ * (index i), categorical features after them (index numeric.length + j).
+ */
+export interface FeatureContract {
+  readonly numeric: readonly string[];
+  readonly categorical: readonly CategoricalFeature[];
+}
+
+export interface CategoricalFeature {
+  readonly name: string;
+  /**
+   * The values the trees split on natively, in code order (code = position).
+   * Empty for a categorical feature used only by the heads (hashed). Values not
+   * listed are read as missing by the trees.
+   */
+  readonly values: readonly string[];
+}
+
+/**
+ * One tree in the implicit complete layout: internal node i has children
+ * 2i + 1 (left) and 2i + 2 (right); a tree that stopped growing early is padded
+ * with pass-through nodes so that every tree of a forest has the same depth.
+ * Leaf k (0 <= k < 2^depth) is node 2^depth - 1 + k.
+ */
+export interface TreeModel {
+  /** Per internal node (2^depth - 1): feature index in the contract, or -1 for a pass-through node that always goes left. */
+  readonly feature: Int32Array;
+  /** Per internal node: a numeric split goes right when x > threshold (a raw feature value). */
+  readonly threshold: Float64Array;
+  /** Per internal node: 1 when a missing value goes right, else 0. */
+  readonly missingRight: Uint8Array;
+  /**
+   * Per internal node: for a categorical split, the category codes that go right
+   * (sorted); null for numeric and pass-through nodes.
+   */
+  readonly rightCategories: readonly (Int32Array | null)[];
+  /** Per leaf (2^depth): the leaf value, learning rate already applied. */
+  readonly leafValue: Float64Array;
+}
+
+/** The trees fitted for one outcome; their leaves are features for every head. */
+export interface ForestModel {
+  readonly outcome: string;
+  /** The forest's starting log-odds (logit of the weighted positive rate). */
+  readonly baseLogit: number;
+  readonly depth: number;
+  readonly trees: readonly TreeModel[];
+}
+
+/**
+ * A logistic head for one outcome: sparse weights over the encoded features
+ * (leaf one-hots of every forest, hashed categoricals, standardized numerics).
+ */
+export interface HeadModel {
+  readonly outcome: string;
+  readonly bias: number;
+  /** Encoded-feature indexes with a non-zero weight, ascending. */
+  readonly index: Int32Array;
+  readonly weight: Float64Array;
+  /**
+   * Negative keep rate the head was trained with under "recalibrate" correction:
+   * the served probability is q = p / (p + (1 - p) / rate). 1 means no correction.
+   */
+  readonly negativeKeepRate: number;
+}

@@ -1,0 +1,11 @@
+import { defineConfig } from "vitest/config";
+
+export default defineConfig({
+  test: {
+    include: ["test/**/*.test.ts"],
+    testTimeout: 120_000,
+    hookTimeout: 120_000,
+    // Two cores: keep parallel test files from starving worker-thread tests.
+    maxWorkers: 2,
+  },
+});
