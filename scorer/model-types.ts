@@ -71,3 +71,36 @@ export interface HeadModel {
    */
   readonly negativeKeepRate: number;
 }
+
+/**
+ * How a row becomes the heads' sparse input. The encoded index space is laid out as
+ * [leaf one-hots of every tree of every forest, in forest then tree order, 2^depth
+ * slots per tree] then [2^hashBits hashed buckets] then [one slot per standardized
+ * numeric feature]. The bias is kept apart from the index space (HeadModel.bias).
+ */
+export interface EncodingSpec {
+  readonly hashBits: number;
+  readonly hashSeed: number;
+  /** Categorical columns hashed one by one. */
+  readonly hashed: readonly string[];
+  /** Crosses of categorical columns, each hashed as one feature. */
+  readonly crosses: readonly (readonly string[])[];
+  /** Numeric features added standardized: (x - mean) / std, missing -> 0. */
+  readonly numeric: readonly {
+    readonly name: string;
+    readonly mean: number;
+    readonly std: number;
+  }[];
+}
+
+/**
+ * A batch of encoded rows in compressed sparse row form: row r's entries are
+ * index[offsets[r] .. offsets[r + 1]). value is null when every entry is 1
+ * (leaves and hashed buckets); otherwise it holds one value per entry.
+ */
+export interface EncodedBatch {
+  readonly rowCount: number;
+  readonly offsets: Uint32Array;
+  readonly index: Int32Array;
+  readonly value: Float64Array | null;
+}
