@@ -282,6 +282,7 @@ function checkCombinators(
 }
 
 function resolveRef(root: JsonSchema, ref: string): JsonSchema {
+  if (ref === "#") return root;
   if (!ref.startsWith("#/"))
     throw new Error(`json-schema: only local $ref is supported, found "${ref}"`);
   let node: unknown = root;
