@@ -1,0 +1,98 @@
+import { describe, expect, it } from "vitest";
+import { binNumericColumn, padEdges } from "../../trainer/trees/bin-kernels.js";
+import { chooseValidationRows } from "../../trainer/trees/choose-validation-rows.js";
+import { accumulateHistogram } from "../../trainer/trees/histogram-kernel.js";
+import { partitionRows } from "../../trainer/trees/partition-rows.js";
+import { testRandom } from "./tree-test-helpers.js";
+
+// Small hand-checked cases of the kernels; expected values are worked out by hand
+// in the comments.
+describe("tree kernels", () => {
+  it("partitionRows is a stable partition that carries the gradient pairs along", () => {
+    // Bins [3, 0, 7, 1] in one column; bins above 2 go right.
+    const table = new Uint8Array(512).fill(1, 256 + 3, 512);
+    const rows = Uint32Array.of(9, 0, 1, 2, 3);
+    const ordered = Float64Array.of(-1, -1, 0, 0.5, 1, 1.5, 2, 2.5, 3, 3.5);
+    const bins = Uint8Array.of(3, 0, 7, 1);
+    const left = partitionRows(
+      bins,
+      1,
+      rows,
+      ordered,
+      1,
+      5,
+      0,
+      table,
+      256,
+      new Uint32Array(4),
+      new Float64Array(8),
+    );
+    expect(left).toBe(2);
+    expect(Array.from(rows)).toEqual([9, 1, 3, 0, 2]); // position 0 is outside the segment
+    expect(Array.from(ordered)).toEqual([-1, -1, 1, 1.5, 3, 3.5, 0, 0.5, 2, 2.5]);
+  });
+
+  it("partitionRows keeps every row once on random data", () => {
+    const random = testRandom(1);
+    const n = 5000;
+    const bins = Uint8Array.from({ length: 3 * n }, () => Math.floor(random() * 256));
+    const table = Uint8Array.from({ length: 256 }, (_, b) => (b % 3 === 0 ? 1 : 0));
+    const rows = Uint32Array.from({ length: n }, (_, i) => i);
+    const ordered = Float64Array.from({ length: 2 * n }, (_, k) => Math.floor(k / 2));
+    const left = partitionRows(
+      bins,
+      3,
+      rows,
+      ordered,
+      0,
+      n,
+      2,
+      table,
+      0,
+      new Uint32Array(n),
+      new Float64Array(2 * n),
+    );
+    const goesRight = (r: number): boolean => table[bins[3 * r + 2]] === 1;
+    const expected = [
+      ...Array.from({ length: n }, (_, r) => r).filter((r) => !goesRight(r)),
+      ...Array.from({ length: n }, (_, r) => r).filter(goesRight),
+    ];
+    expect(left).toBe(expected.findIndex(goesRight));
+    expect(Array.from(rows)).toEqual(expected);
+    for (let i = 0; i < n; i++) expect(ordered[2 * i]).toBe(rows[i]);
+  });
+
+  it("accumulateHistogram sums gradient, hessian and count per bin by position", () => {
+    const hist = new Float64Array(3 * 256 * 2);
+    // Two columns; rows 0 and 1 at positions 0 and 1.
+    accumulateHistogram(
+      Uint8Array.of(1, 0, 1, 5),
+      2,
+      Uint32Array.of(0, 1),
+      0,
+      2,
+      Float64Array.of(0.5, 0.25, -2, 1),
+      hist,
+    );
+    expect(Array.from(hist.subarray(3, 6))).toEqual([-1.5, 1.25, 2]); // column 0, bin 1: both rows
+    expect(Array.from(hist.subarray(768, 771))).toEqual([0.5, 0.25, 1]); // column 1, bin 0: row 0
+    expect(Array.from(hist.subarray(768 + 15, 768 + 18))).toEqual([-2, 1, 1]); // column 1, bin 5: row 1
+  });
+
+  it("binNumericColumn finds the first edge at or above each value", () => {
+    const edges = Float64Array.of(-1, 0, 2.5, Number.MAX_VALUE);
+    const values = Float64Array.of(-5, -1, -0.5, 0, 1, 2.5, 2.6, 1e300, NaN);
+    const out = new Uint8Array(values.length);
+    binNumericColumn(values, padEdges(edges), out, 1, 0, 4);
+    expect(Array.from(out)).toEqual([0, 0, 1, 1, 2, 2, 3, 3, 4]);
+  });
+
+  it("chooseValidationRows holds out the latest rows, ties by file order", () => {
+    const mask = chooseValidationRows(10, 0.3, Float64Array.of(5, 1, 9, 9, 3, 4, 6, 7, 8, NaN), 1);
+    expect(Array.from(mask ?? [])).toEqual([0, 0, 1, 1, 0, 0, 0, 0, 1, 0]);
+    const drawn = chooseValidationRows(1000, 0.25, null, 7);
+    expect(drawn?.reduce((a, b) => a + b, 0)).toBe(250);
+    expect(chooseValidationRows(1000, 0.25, null, 7)).toEqual(drawn); // seeded
+    expect(chooseValidationRows(10, 0, null, 7)).toBeNull();
+  });
+});

@@ -1,0 +1,130 @@
+import { openDataFile } from "../data/open-data-file.js";
+import { LeafcastError } from "../errors.js";
+import type { ResolvedSchema } from "../schema/load-dataset-schema.js";
+import {
+  checkConfigAgainstSchema,
+  type ResolvedTrainingConfig,
+} from "../schema/load-training-config.js";
+import { binFeatures } from "./bin-features.js";
+import { fitForests, type TreeProgress } from "./fit-forests.js";
+import { forestFileOf, type ForestFile } from "./forest-file.js";
+import { RowReservoir } from "./row-reservoir.js";
+
+export interface FitTreesFromFileOptions {
+  readonly onProgress?: (progress: TreeProgress) => void;
+  /** Bad-row policy of the read (default "fail"); see openDataFile. */
+  readonly badRows?: "fail" | "skip";
+  readonly rejectsPath?: string;
+  readonly signal?: AbortSignal;
+}
+
+export interface FitTreesFromFileResult {
+  readonly forests: ForestFile;
+  /** Rows read from the file and rows kept in the fitting sample. */
+  readonly rowsRead: number;
+  readonly rowsSampled: number;
+  /** Weighted positive rate of every outcome in the sample. */
+  readonly positiveRate: ReadonlyMap<string, number>;
+}
+
+/**
+ * Reads a data file, keeps a uniform seeded sample of at most
+ * config.trees.sampleRows rows, bins the features once and fits one forest per
+ * outcome: config.trees.outcomes, or else every outcome of the schema whose
+ * positive rate in the sample is at least config.trees.minForestRate. Save the
+ * result with writeForestFile.
+ *
+ * @example
+ * const { forests } = await fitTreesFromFile("plots.parquet", schema, config, { onProgress: print });
+ * await writeForestFile("runs/demo/forests.json", forests);
+ */
+export async function fitTreesFromFile(
+  dataPath: string,
+  schema: ResolvedSchema,
+  config: ResolvedTrainingConfig,
+  options: FitTreesFromFileOptions = {},
+): Promise<FitTreesFromFileResult> {
+  checkConfigAgainstSchema(config, schema);
+  const settings = config.trees;
+  const extraNumbers = [schema.weight, schema.timestamp].filter((n): n is string => n !== null);
+  const reservoir = new RowReservoir(
+    {
+      numbers: [...schema.numeric, ...extraNumbers],
+      categories: schema.categorical,
+      labels: schema.outcomes,
+    },
+    settings.sampleRows,
+    config.seed,
+  );
+  const reader = openDataFile(dataPath, schema, {
+    batchRows: config.batchRows,
+    badRows: options.badRows,
+    rejectsPath: options.rejectsPath,
+    signal: options.signal,
+  });
+  for await (const batch of reader.batches()) reservoir.add(batch);
+  const n = reservoir.size;
+  const weight = schema.weight === null ? null : reservoir.numbers(schema.weight);
+  const positiveRate = new Map<string, number>();
+  for (const outcome of schema.outcomes)
+    positiveRate.set(outcome, rateOf(reservoir.labels(outcome), weight));
+  const outcomes =
+    settings.outcomes ??
+    schema.outcomes.filter((outcome) => (positiveRate.get(outcome) ?? 0) >= settings.minForestRate);
+  if (outcomes.length === 0) {
+    const rates = [...positiveRate].map(([o, r]) => `${o} ${r.toFixed(4)}`).join(", ");
+    throw new LeafcastError("trees", [
+      {
+        code: "no_forest_outcome",
+        message: `expected an outcome with a positive rate of at least ${settings.minForestRate} (trees.minForestRate), found ${rates || "no rows"}`,
+        file: dataPath,
+      },
+    ]);
+  }
+  const binned = binFeatures(
+    {
+      rowCount: n,
+      numeric: schema.numeric.map((name) => ({ name, values: reservoir.numbers(name) })),
+      categorical: schema.categorical.map((name) => ({
+        name,
+        codes: reservoir.codes(name),
+        dictionary: reservoir.dictionary(name),
+      })),
+    },
+    {
+      bins: settings.bins,
+      binSampleRows: settings.binSampleRows,
+      maxCategories: settings.maxCategories,
+      seed: config.seed,
+    },
+  );
+  const fitted = await fitForests(
+    binned,
+    outcomes.map((outcome) => ({ outcome, label: reservoir.labels(outcome) })),
+    {
+      settings,
+      seed: config.seed,
+      workers: config.workers,
+      weight,
+      timestamp: schema.timestamp === null ? null : reservoir.numbers(schema.timestamp),
+      onProgress: options.onProgress,
+    },
+  );
+  return {
+    forests: forestFileOf(binned, fitted, settings, config.seed),
+    rowsRead: reservoir.seen,
+    rowsSampled: n,
+    positiveRate,
+  };
+}
+
+function rateOf(label: Uint8Array, weight: Float64Array | null): number {
+  let positive = 0;
+  let total = 0;
+  for (let r = 0; r < label.length; r++) {
+    const w = weight === null ? 1 : weight[r];
+    positive += w * label[r];
+    total += w;
+  }
+  return total > 0 ? positive / total : 0;
+}

@@ -1,0 +1,107 @@
+import { COLUMN_SLOTS } from "./histogram-kernel.js";
+
+/**
+ * The memory that the tree learner and its worker threads share. Every array is a
+ * view over a SharedArrayBuffer, so posting this object to a worker shares the
+ * memory instead of copying it.
+ */
+export interface TrainingBuffers {
+  /** Row-major bins (BinnedFeatures.bins). */
+  readonly bins: Uint8Array;
+  readonly columnCount: number;
+  /** Numbers in one histogram: 3 per slot, 256 slots per column. */
+  readonly histSize: number;
+  /** Most rows in one segment (the root's segments are this long; children's are shorter). */
+  readonly blockRows: number;
+  /** Raw scores (log-odds) of every row. */
+  readonly score: Float64Array;
+  /**
+   * Per row r: gradient at 2r, hessian at 2r + 1; only for trees on a row sample
+   * (empty otherwise: the gradient round then writes `ordered` directly).
+   */
+  readonly gradHess: Float64Array;
+  /** The same pairs by position in `rows` (position i at 2i), moved along by every partition. */
+  readonly ordered: Float64Array;
+  /** Labels of the outcome being fitted (rewritten per forest). */
+  readonly label: Uint8Array;
+  readonly weight: Float64Array | null;
+  /** 1 for validation rows, null without a validation set. */
+  readonly validation: Uint8Array | null;
+  /** The current tree's rows, partitioned in place segment by segment as nodes split. */
+  readonly rows: Uint32Array;
+  /** Rows outside the current tree's sample (validation and unsampled rows), scored by traversal. */
+  readonly otherRows: Uint32Array;
+  /** Per internal node of the current tree: 256 bytes, 1 where that bin goes right. */
+  readonly goesRight: Uint8Array;
+  /** Per internal node of the current tree: its split column (0 for pass-through nodes). */
+  readonly nodeColumn: Int32Array;
+  /** Per leaf of the current tree at its own depth: the leaf value. */
+  readonly leafValue: Float64Array;
+  /** Per node of the current tree (implicit layout, 2^(depth + 1) - 1 nodes): its leaf value. */
+  readonly nodeValue: Float64Array;
+  /** Block histograms of one round, histSize numbers each. */
+  readonly blockHist: Float64Array;
+  /** Left-row counts of a partition round, one per segment. */
+  readonly counts: Int32Array;
+  /** Loss sums of a gradient round, 4 per row block. */
+  readonly sums: Float64Array;
+}
+
+export interface TrainingBufferSizes {
+  readonly rowCount: number;
+  readonly columnCount: number;
+  readonly blockRows: number;
+  readonly hasWeight: boolean;
+  readonly hasValidation: boolean;
+  /** Whether trees sample rows (rowFraction < 1), which needs gradients by row. */
+  readonly sampleRows: boolean;
+  readonly maxDepth: number;
+  readonly histogramBlocks: number;
+  readonly segments: number;
+  readonly lossBlocks: number;
+}
+
+/**
+ * Allocates the shared buffers for one fitting run over `bins`.
+ *
+ * @example
+ * const buffers = createTrainingBuffers(binned.bins, sizes);
+ * buffers.histSize; // 768 per binned column
+ */
+export function createTrainingBuffers(
+  bins: Uint8Array,
+  sizes: TrainingBufferSizes,
+): TrainingBuffers {
+  const n = sizes.rowCount;
+  const histSize = 3 * COLUMN_SLOTS * sizes.columnCount;
+  const internal = 2 ** sizes.maxDepth - 1;
+  return {
+    bins,
+    columnCount: sizes.columnCount,
+    histSize,
+    blockRows: sizes.blockRows,
+    score: sharedFloat64(n),
+    gradHess: sharedFloat64(sizes.sampleRows ? 2 * n : 0),
+    ordered: sharedFloat64(2 * n),
+    label: sharedBytes(n),
+    weight: sizes.hasWeight ? sharedFloat64(n) : null,
+    validation: sizes.hasValidation ? sharedBytes(n) : null,
+    rows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, n)), 0, n),
+    otherRows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, n)), 0, n),
+    goesRight: sharedBytes(256 * internal),
+    nodeColumn: new Int32Array(new SharedArrayBuffer(4 * internal)),
+    leafValue: sharedFloat64(internal + 1),
+    nodeValue: sharedFloat64(2 * internal + 1),
+    blockHist: sharedFloat64(sizes.histogramBlocks * histSize),
+    counts: new Int32Array(new SharedArrayBuffer(4 * Math.max(1, sizes.segments))),
+    sums: sharedFloat64(4 * sizes.lossBlocks),
+  };
+}
+
+function sharedFloat64(length: number): Float64Array {
+  return new Float64Array(new SharedArrayBuffer(8 * Math.max(1, length)), 0, length);
+}
+
+function sharedBytes(length: number): Uint8Array {
+  return new Uint8Array(new SharedArrayBuffer(Math.max(1, length)), 0, length);
+}
