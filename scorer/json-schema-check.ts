@@ -8,7 +8,10 @@
  * maxLength, pattern, minimum, maximum, exclusiveMinimum, exclusiveMaximum,
  * anyOf, oneOf, $ref (local "#/$defs/..." only). Unknown keywords are ignored,
  * as the standard says; the test suite checks this subset against ajv on every
- * schema file in `schemas/`.
+ * schema file in `schemas/`. With `exactIntegers`, "integer" means a safe
+ * integer (|v| <= 2^53 - 1): a count, size or seed must be exact, and JSON.parse
+ * silently rounds 9007199254740993 to ...992 (the standard, and ajv, take 1e300
+ * for an integer).
  *
  * @example
  * const issues = checkJsonSchema({ type: "integer", minimum: 1 }, 0);
@@ -27,10 +30,26 @@ export type JsonSchema = { readonly [keyword: string]: unknown } | boolean;
 const MAX_DEPTH = 200;
 const MAX_ISSUES = 50;
 
+/** How to check; every field is optional. */
+export interface SchemaCheckOptions {
+  /** Refuse integers beyond +-(2^53 - 1), which a double cannot hold exactly. Default false (the standard's reading). */
+  readonly exactIntegers?: boolean;
+}
+
+/** The document's root schema (for $ref) and the options, passed down the walk. */
+interface Walk {
+  readonly schema: JsonSchema;
+  readonly exactIntegers: boolean;
+}
+
 /** Checks `value` against `schema`; returns every problem found (at most 50), empty when valid. */
-export function checkJsonSchema(schema: JsonSchema, value: unknown): SchemaIssue[] {
+export function checkJsonSchema(
+  schema: JsonSchema,
+  value: unknown,
+  options: SchemaCheckOptions = {},
+): SchemaIssue[] {
   const issues: SchemaIssue[] = [];
-  visit(schema, value, "", schema, issues, 0);
+  visit(schema, value, "", { schema, exactIntegers: options.exactIntegers === true }, issues, 0);
   return issues;
 }
 
@@ -38,7 +57,7 @@ function visit(
   schema: JsonSchema,
   value: unknown,
   path: string,
-  root: JsonSchema,
+  root: Walk,
   issues: SchemaIssue[],
   depth: number,
 ): void {
@@ -55,12 +74,20 @@ function visit(
   const s = schema;
   const ref = own(s, "$ref");
   if (typeof ref === "string") {
-    visit(resolveRef(root, ref), value, path, root, issues, depth + 1);
+    visit(resolveRef(root.schema, ref), value, path, root, issues, depth + 1);
   }
   const type = own(s, "type");
-  if (type !== undefined && !matchesType(type, value)) {
+  if (type !== undefined && !matchesType(type, value, root.exactIntegers)) {
     const expected = Array.isArray(type) ? type.join(" or ") : String(type);
-    issues.push({ path, code: "type", message: `expected ${expected}, found ${describe(value)}` });
+    const inexact =
+      root.exactIntegers && Number.isInteger(value) && !Number.isSafeInteger(value)
+        ? " (too large to be exact: integers must be within +-(2^53 - 1))"
+        : "";
+    issues.push({
+      path,
+      code: "type",
+      message: `expected ${expected}, found ${describe(value)}${inexact}`,
+    });
     return;
   }
   const enumValues = own(s, "enum");
@@ -158,7 +185,7 @@ function checkArray(
   s: { readonly [k: string]: unknown },
   value: readonly unknown[],
   path: string,
-  root: JsonSchema,
+  root: Walk,
   issues: SchemaIssue[],
   depth: number,
 ): void {
@@ -182,7 +209,15 @@ function checkArray(
   if (own(s, "uniqueItems") === true) {
     const seen = new Set<string>();
     for (let i = 0; i < value.length; i++) {
-      const key = JSON.stringify(value[i]);
+      const key = jsonKey(value[i]);
+      if (key === null) {
+        issues.push({
+          path: `${path}/${i}`,
+          code: "depth",
+          message: `nesting deeper than ${MAX_DEPTH} levels`,
+        });
+        break;
+      }
       if (seen.has(key)) {
         issues.push({
           path: `${path}/${i}`,
@@ -206,7 +241,7 @@ function checkObject(
   s: { readonly [k: string]: unknown },
   value: { readonly [k: string]: unknown },
   path: string,
-  root: JsonSchema,
+  root: Walk,
   issues: SchemaIssue[],
   depth: number,
 ): void {
@@ -248,7 +283,7 @@ function checkCombinators(
   s: { readonly [k: string]: unknown },
   value: unknown,
   path: string,
-  root: JsonSchema,
+  root: Walk,
   issues: SchemaIssue[],
   depth: number,
 ): void {
@@ -294,8 +329,8 @@ function resolveRef(root: JsonSchema, ref: string): JsonSchema {
   return node as JsonSchema;
 }
 
-function matchesType(type: unknown, value: unknown): boolean {
-  if (Array.isArray(type)) return type.some((t) => matchesType(t, value));
+function matchesType(type: unknown, value: unknown, exactIntegers: boolean): boolean {
+  if (Array.isArray(type)) return type.some((t) => matchesType(t, value, exactIntegers));
   switch (type) {
     case "null":
       return value === null;
@@ -306,7 +341,10 @@ function matchesType(type: unknown, value: unknown): boolean {
     case "number":
       return typeof value === "number" && Number.isFinite(value);
     case "integer":
-      return typeof value === "number" && Number.isInteger(value);
+      return (
+        typeof value === "number" &&
+        (exactIntegers ? Number.isSafeInteger(value) : Number.isInteger(value))
+      );
     case "array":
       return Array.isArray(value);
     case "object":
@@ -328,7 +366,24 @@ function own(object: { readonly [k: string]: unknown }, key: string): unknown {
 function jsonEqual(a: unknown, b: unknown): boolean {
   if (a === b) return true;
   if (typeof a !== "object" || typeof b !== "object" || a === null || b === null) return false;
-  return JSON.stringify(a) === JSON.stringify(b);
+  const key = jsonKey(b);
+  return key !== null && jsonKey(a) === key;
+}
+
+/**
+ * JSON text of a parsed value, or null when it nests deeper than MAX_DEPTH:
+ * JSON.stringify recurses and throws RangeError on a hostile 100,000-level value.
+ */
+function jsonKey(value: unknown): string | null {
+  return nestedDeeper(value, MAX_DEPTH) ? null : JSON.stringify(value);
+}
+
+function nestedDeeper(value: unknown, levels: number): boolean {
+  if (typeof value !== "object" || value === null) return false;
+  if (levels === 0) return true;
+  const children = Array.isArray(value) ? value : Object.values(value);
+  for (const child of children) if (nestedDeeper(child, levels - 1)) return true;
+  return false;
 }
 
 function codePointLength(text: string): number {

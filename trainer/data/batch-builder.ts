@@ -150,6 +150,11 @@ export class BatchBuilder {
     }
   }
 
+  /** A cell whose bytes are not UTF-8 (`text` is their lossy decoding, for the message). */
+  invalidText(slot: number, text: string): void {
+    this.fail(slot, "invalid_utf8", describeValue(text));
+  }
+
   /** A value from JSON, Parquet or Arrow, whatever its type. */
   valueCell(slot: number, value: unknown): void {
     switch (typeof value) {

@@ -1,10 +1,13 @@
+/** The most bytes of values held (16 MiB); Int32 offsets into the pool stay far from overflow. */
+const MAX_POOL_BYTES = 1 << 24;
+
 /**
  * Remembers the codes of category values by their UTF-8 bytes, so the CSV
  * kernel can code a repeated value straight from the read buffer without
  * making a string and hashing it again in a Map. It holds only values already
- * in the column's dictionary, and at most `maxEntries` of them (default 65,536,
- * a few MiB at most): a column with more distinct values than that simply
- * misses for the rest, and takes the text path.
+ * in the column's dictionary, at most `maxEntries` of them (default 65,536) and
+ * at most 16 MiB of their bytes: values beyond that simply miss, and take the
+ * text path.
  *
  * @example
  * const cache = new CategoryByteCache();
@@ -13,8 +16,8 @@
  * if (code < 0) cache.add(buf, start, end, hash, (code = dictionary.codeOf(text)));
  */
 export class CategoryByteCache {
-  private readonly table: Int32Array;
-  private readonly mask: number;
+  private table: Int32Array = new Int32Array(32);
+  private mask = 31;
   private hashes: Int32Array = new Int32Array(16);
   private starts: Int32Array = new Int32Array(16);
   private lengths: Int32Array = new Int32Array(16);
@@ -23,12 +26,8 @@ export class CategoryByteCache {
   private poolUsed = 0;
   private count = 0;
 
-  constructor(private readonly maxEntries = 1 << 16) {
-    let size = 16;
-    while (size < maxEntries * 2) size *= 2;
-    this.table = new Int32Array(size);
-    this.mask = size - 1;
-  }
+  /** The table starts small and doubles with the entries (load at most 1/2): a read of a small file should not pay for 65,536 slots. */
+  constructor(private readonly maxEntries = 1 << 16) {}
 
   /** FNV-1a over bytes [start, end), the hash `find` and `add` expect (kernels may compute it while scanning). */
   static hash(buf: Uint8Array, start: number, end: number): number {
@@ -59,9 +58,11 @@ export class CategoryByteCache {
   /** Caches `code` for the value whose bytes are `buf[start, end)`; ignored when the cache is full. */
   add(buf: Uint8Array, start: number, end: number, hash: number, code: number): void {
     if (this.count >= this.maxEntries) return;
+    const length = end - start;
+    // The entry count alone does not bound memory: 65,536 values of a megabyte each would.
+    if (this.poolUsed + length > MAX_POOL_BYTES) return;
     const e = this.count;
     if (e === this.hashes.length) this.growEntries();
-    const length = end - start;
     while (this.poolUsed + length > this.pool.length) {
       const pool = new Uint8Array(this.pool.length * 2);
       pool.set(this.pool);
@@ -74,9 +75,21 @@ export class CategoryByteCache {
     this.codes[e] = code;
     this.poolUsed += length;
     this.count = e + 1;
-    let at = hash & this.mask;
+    if (this.count * 2 > this.table.length) this.growTable();
+    else this.place(e);
+  }
+
+  /** Puts entry `e` in its first free slot from its hash. */
+  private place(e: number): void {
+    let at = this.hashes[e] & this.mask;
     while (this.table[at] !== 0) at = (at + 1) & this.mask;
     this.table[at] = e + 1;
+  }
+
+  private growTable(): void {
+    this.table = new Int32Array(this.table.length * 2);
+    this.mask = this.table.length - 1;
+    for (let e = 0; e < this.count; e++) this.place(e);
   }
 
   private growEntries(): void {

@@ -61,6 +61,8 @@ export function expectation(code: string, cell: number): string {
       return "expected a probability in [0, 1]";
     case "not_a_label":
       return "expected 0 or 1";
+    case "invalid_utf8":
+      return "expected UTF-8 text";
     case "bad_time":
       return cell === C.CELL_TIME_ISO
         ? "expected an ISO 8601 date or date-time"

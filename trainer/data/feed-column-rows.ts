@@ -180,7 +180,8 @@ function feedRow(
 
 /** The row's values as JSON, for the rejects file. */
 function rawRow(b: BatchBuilder, sources: readonly ColumnSource[], r: number): string {
-  const row: Record<string, unknown> = {};
+  // No prototype: a column named "__proto__" must become a key, not replace the prototype.
+  const row = Object.create(null) as Record<string, unknown>;
   sources.forEach((source, slot) => {
     const name = b.slots[slot].name;
     if (source.valid !== null && source.valid[r] === 0) row[name] = null;

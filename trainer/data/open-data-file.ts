@@ -35,8 +35,9 @@ const readers: Record<DataFormat, (ctx: ReadContext) => AsyncGenerator<ColumnBat
  * Rows are 1-based data rows: a CSV header is not counted; CSV blank lines and
  * NDJSON lines are counted, so an NDJSON row number is its line number. Cells
  * are checked by their column's role (see BatchBuilder); a required schema
- * column missing from the file, an empty file and a damaged Parquet or Arrow
- * file are file-level errors, fatal under either bad-row policy.
+ * column missing from the file, an empty file, a CSV or NDJSON record longer
+ * than `maxRecordBytes` and a damaged Parquet or Arrow file are file-level
+ * errors, fatal under either bad-row policy.
  *
  * @example
  * const reader = openDataFile("plots.csv", schema, { badRows: "skip", rejectsPath: "rejects.ndjson" });
@@ -51,8 +52,9 @@ export function openDataFile(
   const format = options.format ?? detectDataFormat(path);
   const batchRows = options.batchRows ?? 65536;
   const chunkBytes = options.chunkBytes ?? 1 << 20;
+  const maxRecordBytes = options.maxRecordBytes ?? 1 << 26;
   const badRows = options.badRows ?? "fail";
-  checkOptions(path, format, batchRows, chunkBytes, badRows, options.rejectsPath);
+  checkOptions(path, format, batchRows, chunkBytes, maxRecordBytes, badRows, options.rejectsPath);
   const stats: MutableReadStats = {
     file: path,
     rowsAccepted: 0,
@@ -71,6 +73,7 @@ export function openDataFile(
       schema,
       batchRows,
       chunkBytes,
+      maxRecordBytes,
       signal: options.signal,
       sink,
       dictionaries: options.dictionaries,
@@ -117,6 +120,7 @@ function checkOptions(
   format: string,
   batchRows: number,
   chunkBytes: number,
+  maxRecordBytes: number,
   badRows: string,
   rejectsPath: string | undefined,
 ): void {
@@ -127,6 +131,8 @@ function checkOptions(
     problems.push(`batchRows expected a whole number >= 1, found ${batchRows}`);
   if (!Number.isSafeInteger(chunkBytes) || chunkBytes < 1)
     problems.push(`chunkBytes expected a whole number >= 1, found ${chunkBytes}`);
+  if (!Number.isSafeInteger(maxRecordBytes) || maxRecordBytes < 1)
+    problems.push(`maxRecordBytes expected a whole number >= 1, found ${maxRecordBytes}`);
   if (badRows !== "fail" && badRows !== "skip")
     problems.push(`badRows expected "fail" or "skip", found ${JSON.stringify(badRows)}`);
   if (rejectsPath !== undefined && badRows !== "skip")

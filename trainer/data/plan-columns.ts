@@ -46,19 +46,22 @@ export function planColumns(
   dictionaries?: Map<string, CategoryDictionary>,
 ): ColumnSlot[] {
   const positions = new Map<string, number>();
+  // Counted in one pass: a hostile header may repeat a name a million times.
+  const repeats = new Map<string, number>();
   const issues: Issue[] = [];
   fileColumns.forEach((name, index) => {
     if (!schema.byName.has(name)) return;
-    if (positions.has(name)) {
-      issues.push({
-        code: "duplicate_column",
-        message: `column "${name}" expected once, found ${fileColumns.filter((n) => n === name).length} times`,
-        file,
-        column: name,
-      });
-    }
+    if (positions.has(name)) repeats.set(name, (repeats.get(name) ?? 1) + 1);
     positions.set(name, index);
   });
+  for (const [name, count] of repeats) {
+    issues.push({
+      code: "duplicate_column",
+      message: `column "${name}" expected once, found ${count} times`,
+      file,
+      column: name,
+    });
+  }
   const slots: ColumnSlot[] = [];
   for (const column of schema.columns) {
     if (column.role === "ignore") continue;

@@ -4,6 +4,7 @@ import type { ColumnBatch } from "./column-batch.js";
 import { FileChunks } from "./file-chunks.js";
 import { parseCsvHeader } from "./parse-csv-header.js";
 import { planColumns } from "./plan-columns.js";
+import { recordTooLongError } from "./record-too-long-error.js";
 import type { ReadContext } from "./read-types.js";
 import { CsvRowScanner } from "./scan-csv-rows.js";
 
@@ -15,7 +16,9 @@ import { CsvRowScanner } from "./scan-csv-rows.js";
  *
  * Rows are numbered from 1 at the first record after the header (the header is
  * not counted); blank lines are skipped but counted, so "row 17" is line 18 of
- * a file without quoted line breaks.
+ * a file without quoted line breaks. A cell of a schema column whose bytes are
+ * not UTF-8 makes its row bad ("invalid_utf8"); a header that is not UTF-8, or
+ * has a quote left open or text after a closing quote, is a file-level error.
  *
  * @example
  * for await (const batch of readCsv(context)) console.log(batch.rowCount);
@@ -29,7 +32,11 @@ export async function* readCsv(ctx: ReadContext): AsyncGenerator<ColumnBatch> {
       ctx.signal?.throwIfAborted();
       if (scanner === null || builder === null) {
         const header = readHeader(ctx.file, chunks);
-        if (header === null) continue;
+        if (header === null) {
+          if (chunks.end > ctx.maxRecordBytes)
+            throw recordTooLongError("csv", ctx.file, ctx.maxRecordBytes, null);
+          continue;
+        }
         const slots = planColumns(ctx.schema, header.names, "csv", ctx.file, ctx.dictionaries);
         builder = new BatchBuilder(ctx.file, slots, ctx.batchRows, ctx.sink);
         const fieldSlots = new Int32Array(header.names.length).fill(-1);
@@ -42,6 +49,9 @@ export async function* readCsv(ctx: ReadContext): AsyncGenerator<ColumnBatch> {
         if (!builder.full) break;
         yield builder.take();
       }
+      // What the scanner left is one record cut by the end of the bytes read so far.
+      if (chunks.end - chunks.start > ctx.maxRecordBytes)
+        throw recordTooLongError("csv", ctx.file, ctx.maxRecordBytes, scanner.row + 1);
       await ctx.sink.flush();
     }
     if (builder !== null && builder.rowCount > 0) yield builder.take(true);
@@ -61,6 +71,9 @@ function readHeader(file: string, chunks: FileChunks): { names: string[]; next: 
   }
   const header = parseCsvHeader(buf.subarray(skip, end), eof);
   if (header === null) return null;
+  if (header.problem !== null) {
+    throw new LeafcastError("csv", [{ code: "bad_header", message: header.problem, file }]);
+  }
   if (header.names.length === 1 && header.names[0] === "")
     throw emptyFile(file, "a blank first line");
   return { names: header.names, next: skip + header.next };

@@ -1,11 +1,14 @@
+import { isUtf8 } from "node:buffer";
 import { LeafcastError } from "../errors.js";
 import { BatchBuilder } from "./batch-builder.js";
 import type { ColumnBatch } from "./column-batch.js";
 import { FileChunks } from "./file-chunks.js";
 import { planColumns } from "./plan-columns.js";
+import { recordTooLongError } from "./record-too-long-error.js";
 import type { ReadContext } from "./read-types.js";
 
 const LF = 10;
+const blank = /^[ \t\r\n]*$/;
 const hasOwn = Object.prototype.hasOwnProperty;
 
 /**
@@ -16,7 +19,7 @@ const hasOwn = Object.prototype.hasOwnProperty;
  *
  * Rows are numbered by line (1-based); blank lines are skipped but counted, so
  * a row number is always the line to look at. A line that is not valid JSON, or
- * not an object, is a bad row.
+ * not an object, or not UTF-8, is a bad row.
  *
  * @example
  * for await (const batch of readNdjson(context)) console.log(batch.rowCount);
@@ -46,6 +49,9 @@ export async function* readNdjson(ctx: ReadContext): AsyncGenerator<ColumnBatch>
         chunks.start = at;
         if (reader.builder?.full === true) yield reader.builder.take();
       }
+      // What is left is one line cut by the end of the bytes read so far.
+      if (chunks.end - chunks.start > ctx.maxRecordBytes)
+        throw recordTooLongError("ndjson", ctx.file, ctx.maxRecordBytes, reader.lineNumber + 1);
       await ctx.sink.flush();
     }
     if (reader.builder === null && !reader.sawLine) {
@@ -67,7 +73,8 @@ export async function* readNdjson(ctx: ReadContext): AsyncGenerator<ColumnBatch>
 class NdjsonLines {
   builder: BatchBuilder | null = null;
   sawLine = false;
-  private lineNumber = 0;
+  /** Lines seen so far (the 1-based number of the last one). */
+  lineNumber = 0;
   private names: string[] = [];
 
   constructor(private readonly ctx: ReadContext) {}
@@ -77,8 +84,15 @@ class NdjsonLines {
     let stop = end;
     if (stop > start && buf[stop - 1] === 13) stop--;
     const text = buf.toString("utf8", start, stop);
-    if (text.trim() === "") return;
+    // Only JSON's own whitespace makes a blank line: a line of U+00A0 or U+FEFF is not JSON.
+    if (blank.test(text)) return;
     this.sawLine = true;
+    // U+FFFD may stand for bytes that are not UTF-8: refuse those, or two different
+    // broken category values would silently become one.
+    if (text.includes("\uFFFD") && !isUtf8(buf.subarray(start, stop))) {
+      this.reject("invalid_utf8", "expected UTF-8 text, found bytes that are not UTF-8", text);
+      return;
+    }
     let record: unknown;
     try {
       record = JSON.parse(text);

@@ -29,6 +29,14 @@ export interface ReadOptions {
   signal?: AbortSignal;
   /** Bytes per read from the file for CSV and NDJSON. Default 1 MiB; tests use tiny values to cut rows across chunks. */
   chunkBytes?: number;
+  /**
+   * CSV and NDJSON: the longest record (a CSV header or row, an NDJSON line) in
+   * bytes. A longer one is a file-level error, fatal under either bad-row policy:
+   * the reader must hold a whole record, so without a bound a file with no line
+   * breaks would grow the buffer until the process dies. Default 64 MiB (a row of
+   * a million columns of a few bytes each fits).
+   */
+  maxRecordBytes?: number;
 }
 
 /** What a read did. Live while the read runs; final once iteration ends. */
@@ -77,6 +85,7 @@ export interface ReadContext {
   readonly schema: ResolvedSchema;
   readonly batchRows: number;
   readonly chunkBytes: number;
+  readonly maxRecordBytes: number;
   readonly signal: AbortSignal | undefined;
   readonly sink: RejectSink;
   readonly dictionaries: Map<string, CategoryDictionary> | undefined;

@@ -1,3 +1,4 @@
+import { isUtf8 } from "node:buffer";
 import type { BatchBuilder } from "./batch-builder.js";
 import { CategoryByteCache } from "./category-byte-cache.js";
 import { CategoryDictionary } from "./category-dictionary.js";
@@ -144,7 +145,7 @@ export class CsvRowScanner {
           }
           if (slot >= 0) {
             const inner = text.utf8Slice(q + 1, k);
-            b.textCell(slot, doubled ? inner.replaceAll('""', '"') : inner);
+            textCell(b, slot, buf, q + 1, k, doubled ? inner.replaceAll('""', '"') : inner);
           }
           p = k + 1;
           if (p < end) {
@@ -156,6 +157,11 @@ export class CsvRowScanner {
                 this.header[field] ?? null,
               );
               while (p < end && (c = buf[p]) !== COMMA && c !== LF && c !== CR) p++;
+              if (p === end && !eof) {
+                // The junk runs into the next chunk: read the row again with more bytes.
+                b.resetRow();
+                return rowStart;
+              }
             }
           }
         } else if (kind === FIELD_NUMBER || kind === FIELD_ROLE_NUMBER) {
@@ -205,7 +211,7 @@ export class CsvRowScanner {
               b.resetRow();
               return rowStart;
             }
-            b.textCell(slot, text.utf8Slice(q, k));
+            textCell(b, slot, buf, q, k, text.utf8Slice(q, k));
           }
           p = k;
         } else if (kind === FIELD_CATEGORY) {
@@ -226,9 +232,11 @@ export class CsvRowScanner {
             b.categoryCode(slot, code);
           } else {
             const value = text.utf8Slice(q, k);
-            b.textCell(slot, value);
+            const valid = textCell(b, slot, buf, q, k, value);
             const known =
-              k > q && !b.isMissingText(slot, value) ? this.dictionaries[field].lookup(value) : -1;
+              valid && k > q && !b.isMissingText(slot, value)
+                ? this.dictionaries[field].lookup(value)
+                : -1;
             if (known >= 0) cache.add(buf, q, k, hash, known);
           }
           p = k;
@@ -239,7 +247,7 @@ export class CsvRowScanner {
             b.resetRow();
             return rowStart;
           }
-          if (slot >= 0) b.textCell(slot, text.utf8Slice(q, k));
+          if (slot >= 0) textCell(b, slot, buf, q, k, text.utf8Slice(q, k));
           p = k;
         }
         if (p >= end) break;
@@ -283,4 +291,26 @@ export class CsvRowScanner {
     const name = this.header[field];
     return name === undefined ? "" : `(column "${name}") `;
   }
+}
+
+/**
+ * Hands a field's text to the builder unless its bytes `buf[from, to)` are not
+ * UTF-8: decoding turns any broken sequence into U+FFFD, so two different
+ * broken category values would otherwise silently become one. Returns whether
+ * the text was handed over. Only texts holding U+FFFD pay for the check.
+ */
+function textCell(
+  b: BatchBuilder,
+  slot: number,
+  buf: Buffer,
+  from: number,
+  to: number,
+  value: string,
+): boolean {
+  if (value.includes("\uFFFD") && !isUtf8(buf.subarray(from, to))) {
+    b.invalidText(slot, value);
+    return false;
+  }
+  b.textCell(slot, value);
+  return true;
 }

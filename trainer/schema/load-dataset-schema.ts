@@ -52,9 +52,13 @@ export async function loadDatasetSchema(path: string): Promise<ResolvedSchema> {
 
 /** Validates a parsed schema document and fills in defaults; `file` labels errors. */
 export function resolveDatasetSchema(document: unknown, file = "<schema>"): ResolvedSchema {
-  const issues: Issue[] = checkJsonSchema(datasetSchemaDocument as JsonSchema, document).map(
-    (issue) => ({ code: issue.code, message: `${issue.path || "/"}: ${issue.message}`, file }),
-  );
+  const issues: Issue[] = checkJsonSchema(datasetSchemaDocument as JsonSchema, document, {
+    exactIntegers: true,
+  }).map((issue) => ({
+    code: issue.code,
+    message: `${issue.path || "/"}: ${issue.message}`,
+    file,
+  }));
   if (issues.length > 0) throw new LeafcastError("schema", issues);
   const doc = document as DatasetSchema;
   const defaultMissing = new Set(doc.missing ?? [""]);

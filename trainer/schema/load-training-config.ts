@@ -72,9 +72,13 @@ export function resolveTrainingConfig(
   document: unknown,
   file = "<config>",
 ): ResolvedTrainingConfig {
-  const issues: Issue[] = checkJsonSchema(trainingConfigDocument as JsonSchema, document).map(
-    (issue) => ({ code: issue.code, message: `${issue.path || "/"}: ${issue.message}`, file }),
-  );
+  const issues: Issue[] = checkJsonSchema(trainingConfigDocument as JsonSchema, document, {
+    exactIntegers: true,
+  }).map((issue) => ({
+    code: issue.code,
+    message: `${issue.path || "/"}: ${issue.message}`,
+    file,
+  }));
   if (issues.length > 0) throw new LeafcastError("config", issues);
   const doc = document as TrainingConfig;
   const t = doc.trees ?? {};
@@ -115,7 +119,7 @@ export function resolveTrainingConfig(
       hashed: h.hashed ?? null,
       crosses: h.crosses ?? [],
       numeric: h.numeric ?? [],
-      negativeKeepRate: (h.negativeKeepRate ?? {}) as Readonly<Record<string, number>>,
+      negativeKeepRate: ownEntries(h.negativeKeepRate ?? {}),
       downsampleCorrection: h.downsampleCorrection ?? "recalibrate",
       sliceHours: h.sliceHours ?? 24,
     },
@@ -124,6 +128,17 @@ export function resolveTrainingConfig(
       everyRows: doc.checkpoint?.everyRows ?? 1_000_000,
     },
   };
+}
+
+/**
+ * A copy without a prototype: outcomes are column names, and a lookup such as
+ * `rates["constructor"]` on a plain object would find Object's constructor, not
+ * "no rate given".
+ */
+function ownEntries(record: { readonly [key: string]: unknown }): Readonly<Record<string, number>> {
+  const copy = Object.create(null) as Record<string, number>;
+  for (const [key, value] of Object.entries(record)) copy[key] = value as number;
+  return copy;
 }
 
 /** Checks that every column a configuration names exists in the dataset schema with the right role. */
