@@ -6,7 +6,7 @@
  * one depth-6 regression tree on 5,000 of the same rows, measured in this run.
  * The last line is one JSON object of the figures.
  *
- * Run: npm run bench:fit  (options: --rows N --trees N --workers N --cart-rows N)
+ * Run: npm run bench:fit  (options: --rows N --trees N --workers N --cart-rows N --block-rows N)
  */
 import { availableParallelism, loadavg } from "node:os";
 import { binFeatures } from "../trainer/trees/bin-features.js";
@@ -71,6 +71,7 @@ async function main(): Promise<void> {
   const trees = option("trees", 100);
   const workers = option("workers", availableParallelism());
   const cartRows = option("cart-rows", 5_000);
+  const blockRows = option("block-rows", 0);
   console.log(
     `fit-trees: ${rows} rows x ${FEATURES} features, ${trees} trees of depth 6, 255 bins, ${workers} workers`,
   );
@@ -110,6 +111,7 @@ async function main(): Promise<void> {
     settings,
     seed: 1,
     workers,
+    ...(blockRows > 0 ? { blockRows } : {}),
     onProgress: (p) => {
       if (p.tree % 10 === 0) {
         console.log(

@@ -8,15 +8,18 @@ import { testRandom } from "./tree-test-helpers.js";
 // Small hand-checked cases of the kernels; expected values are worked out by hand
 // in the comments.
 describe("tree kernels", () => {
-  it("partitionRows is a stable partition that carries the gradient pairs along", () => {
-    // Bins [3, 0, 7, 1] in one column; bins above 2 go right.
+  it("partitionRows is a stable partition that carries rows, gradient pairs and bins along", () => {
+    // Bins [3, 0, 7, 1] in one column at positions 1 .. 4 (stride 4: one word per row);
+    // bins above 2 go right, so by hand: left rows 1, 3 (bins 0, 1), right rows 0, 2 (bins 3, 7).
     const table = new Uint8Array(512).fill(1, 256 + 3, 512);
     const rows = Uint32Array.of(9, 0, 1, 2, 3);
     const ordered = Float64Array.of(-1, -1, 0, 0.5, 1, 1.5, 2, 2.5, 3, 3.5);
-    const bins = Uint8Array.of(3, 0, 7, 1);
+    const words = Uint32Array.of(99, 3, 0, 7, 1);
+    const placed = new Uint8Array(words.buffer);
     const left = partitionRows(
-      bins,
-      1,
+      placed,
+      words,
+      4,
       rows,
       ordered,
       1,
@@ -26,49 +29,66 @@ describe("tree kernels", () => {
       256,
       new Uint32Array(4),
       new Float64Array(8),
+      new Uint32Array(4),
     );
     expect(left).toBe(2);
     expect(Array.from(rows)).toEqual([9, 1, 3, 0, 2]); // position 0 is outside the segment
     expect(Array.from(ordered)).toEqual([-1, -1, 1, 1.5, 3, 3.5, 0, 0.5, 2, 2.5]);
+    expect(Array.from(words)).toEqual([99, 0, 1, 3, 7]);
   });
 
-  it("partitionRows keeps every row once on random data", () => {
-    const random = testRandom(1);
-    const n = 5000;
-    const bins = Uint8Array.from({ length: 3 * n }, () => Math.floor(random() * 256));
-    const table = Uint8Array.from({ length: 256 }, (_, b) => (b % 3 === 0 ? 1 : 0));
-    const rows = Uint32Array.from({ length: n }, (_, i) => i);
-    const ordered = Float64Array.from({ length: 2 * n }, (_, k) => Math.floor(k / 2));
-    const left = partitionRows(
-      bins,
-      3,
-      rows,
-      ordered,
-      0,
-      n,
-      2,
-      table,
-      0,
-      new Uint32Array(n),
-      new Float64Array(2 * n),
-    );
-    const goesRight = (r: number): boolean => table[bins[3 * r + 2]] === 1;
-    const expected = [
-      ...Array.from({ length: n }, (_, r) => r).filter((r) => !goesRight(r)),
-      ...Array.from({ length: n }, (_, r) => r).filter(goesRight),
-    ];
-    expect(left).toBe(expected.findIndex(goesRight));
-    expect(Array.from(rows)).toEqual(expected);
-    for (let i = 0; i < n; i++) expect(ordered[2 * i]).toBe(rows[i]);
-  });
+  // 3 columns use the general loop (stride 4), 8 columns the two-word loop (stride 8).
+  for (const columns of [3, 8]) {
+    it(`partitionRows keeps every row once, with its own bins, on random data (${columns} columns)`, () => {
+      const random = testRandom(columns);
+      const n = 5000;
+      const stride = 4 * Math.ceil(columns / 4);
+      const bins = Uint8Array.from({ length: columns * n }, () => Math.floor(random() * 256));
+      const words = new Uint32Array((n * stride) / 4);
+      const placed = new Uint8Array(words.buffer);
+      for (let r = 0; r < n; r++)
+        placed.set(bins.subarray(r * columns, (r + 1) * columns), r * stride);
+      const table = Uint8Array.from({ length: 256 }, (_, b) => (b % 3 === 0 ? 1 : 0));
+      const rows = Uint32Array.from({ length: n }, (_, i) => i);
+      const ordered = Float64Array.from({ length: 2 * n }, (_, k) => Math.floor(k / 2));
+      const column = columns - 1;
+      const left = partitionRows(
+        placed,
+        words,
+        stride,
+        rows,
+        ordered,
+        0,
+        n,
+        column,
+        table,
+        0,
+        new Uint32Array(n),
+        new Float64Array(2 * n),
+        new Uint32Array((n * stride) / 4),
+      );
+      const goesRight = (r: number): boolean => table[bins[columns * r + column]] === 1;
+      const expected = [
+        ...Array.from({ length: n }, (_, r) => r).filter((r) => !goesRight(r)),
+        ...Array.from({ length: n }, (_, r) => r).filter(goesRight),
+      ];
+      expect(left).toBe(expected.findIndex(goesRight));
+      expect(Array.from(rows)).toEqual(expected);
+      for (let i = 0; i < n; i++) {
+        expect(ordered[2 * i]).toBe(rows[i]);
+        for (let c = 0; c < columns; c++)
+          expect(placed[i * stride + c]).toBe(bins[rows[i] * columns + c]);
+      }
+    });
+  }
 
   it("accumulateHistogram sums gradient, hessian and count per bin by position", () => {
     const hist = new Float64Array(3 * 256 * 2);
-    // Two columns; rows 0 and 1 at positions 0 and 1.
+    // Two columns at stride 4: position 0 has bins (1, 0), position 1 has bins (1, 5).
     accumulateHistogram(
-      Uint8Array.of(1, 0, 1, 5),
+      Uint8Array.of(1, 0, 0, 0, 1, 5, 0, 0),
+      4,
       2,
-      Uint32Array.of(0, 1),
       0,
       2,
       Float64Array.of(0.5, 0.25, -2, 1),

@@ -1,7 +1,13 @@
 import { describe, expect, it } from "vitest";
 import { binFeatures } from "../../trainer/trees/bin-features.js";
 import { fitForests } from "../../trainer/trees/fit-forests.js";
-import { mixedData, plainSettings, scoreRaw, type RawColumns } from "./tree-test-helpers.js";
+import {
+  mixedData,
+  plainSettings,
+  scoreRaw,
+  testRandom,
+  type RawColumns,
+} from "./tree-test-helpers.js";
 
 // The exported ForestModel (raw thresholds, missingRight, category codes) read by
 // an independent traversal written from scorer/model-types.ts must give every row
@@ -70,6 +76,41 @@ describe("raw-value scoring of the exported forest", () => {
     const scores = fitted.scores as Float64Array;
     for (let r = 0; r < data.rows; r++) {
       expect(Math.abs(scoreRaw(fitted.forest, raw, r) - scores[r])).toBeLessThan(1e-12);
+    }
+  });
+
+  // Eight numeric columns and no validation rows: bins move as whole 32-bit words
+  // and every training row is placed straight from the gradient round, the bench's path.
+  it("matches with 8 numeric columns, all rows training, on 1 and 2 workers", async () => {
+    const random = testRandom(11);
+    const rows = 4000;
+    const numeric = Array.from({ length: 8 }, (_, f) => ({
+      name: `x${f}`,
+      values: Float64Array.from({ length: rows }, () => random()),
+    }));
+    const label = Uint8Array.from({ length: rows }, (_, r) =>
+      random() < (numeric[0].values[r] + numeric[3].values[r]) / 2 ? 1 : 0,
+    );
+    const wide = binFeatures(
+      { rowCount: rows, numeric, categorical: [] },
+      { bins: 32, binSampleRows: 1000, maxCategories: 32, seed: 1 },
+    );
+    const fit = (workers: number) =>
+      fitForests(wide, [{ outcome: "y", label }], {
+        settings: { ...plainSettings, count: 8, depth: 5, leaves: 32, learningRate: 0.3, l2: 1 },
+        seed: 4,
+        workers,
+        returnScores: true,
+        blockRows: 500,
+      });
+    const [one] = await fit(1);
+    const [two] = await fit(2);
+    expect(two.forest).toEqual(one.forest);
+    expect(Array.from(two.scores as Float64Array)).toEqual(Array.from(one.scores as Float64Array));
+    const rawWide: RawColumns = { numeric: numeric.map((c) => c.values), categorical: [] };
+    const scores = one.scores as Float64Array;
+    for (let r = 0; r < rows; r++) {
+      expect(Math.abs(scoreRaw(one.forest, rawWide, r) - scores[r])).toBeLessThan(1e-12);
     }
   });
 });

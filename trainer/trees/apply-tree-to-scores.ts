@@ -21,17 +21,15 @@ export async function applyTreeToScores(
   otherCount: number,
 ): Promise<void> {
   const adds = new TaskList();
-  const splits = new TaskList();
   for (const leaf of leaves) {
     for (let k = 0; k < leaf.segments.length; k += 2) {
       const start = leaf.segments[k];
       const end = leaf.segments[k + 1];
       if (leaf.column < 0) adds.add(end - start, start, end, leaf.node);
-      else splits.add(end - start, start, end, leaf.column, leaf.node);
+      else adds.add(end - start, start, end, leaf.node, leaf.column);
     }
   }
   await pool.run(TreeTaskOp.addLeaf, adds.ints());
-  await pool.run(TreeTaskOp.addSplit, splits.ints());
   if (otherCount === 0) return;
   const depth = tree.depth;
   buffers.leafValue.fill(0, 0, 2 ** depth);

@@ -64,14 +64,18 @@ export async function fitOneForest(
   let bestScores: Float64Array | null = null;
   for (let t = 0; t < settings.count; t++) {
     const treeRandom = random.fork(t);
-    const rootCount = placeTreeRows(
-      buffers,
-      run.trainRows,
-      run.validRows.length,
-      settings.rowFraction,
-      treeRandom,
-    );
-    if (run.positions === null) await orderGradients(pool, rootCount, buffers.blockRows);
+    let rootCount = run.trainRows.length;
+    // With every training row in the tree, the gradient round has placed them already.
+    if (run.positions === null) {
+      rootCount = placeTreeRows(
+        buffers,
+        run.trainRows,
+        run.validRows.length,
+        settings.rowFraction,
+        treeRandom,
+      );
+      await placeRows(pool, rootCount, buffers.blockRows);
+    }
     const allowed = chooseColumns(binned.columnCount, settings.featureFraction, treeRandom);
     const { tree, leaves } = await grower.grow(rootCount, allowed);
     const otherCount = run.validRows.length + run.trainRows.length - rootCount;
@@ -115,12 +119,15 @@ export async function fitOneForest(
   };
 }
 
-/** Copies the sampled rows' gradient pairs from gradHess to their positions in `ordered`. */
-async function orderGradients(pool: TreeTaskPool, count: number, blockRows: number): Promise<void> {
+/**
+ * Copies the bins and gradient pairs (from gradHess) of a row sample's rows to
+ * their positions in buffers.placed and buffers.ordered.
+ */
+async function placeRows(pool: TreeTaskPool, count: number, blockRows: number): Promise<void> {
   const tasks = new TaskList();
   for (let s = 0; s < count; s += blockRows) {
     const end = Math.min(s + blockRows, count);
-    tasks.add(end - s, s, end);
+    tasks.add(end - s, s, end, 1);
   }
-  await pool.run(TreeTaskOp.order, tasks.ints());
+  await pool.run(TreeTaskOp.place, tasks.ints());
 }

@@ -1,3 +1,4 @@
+import { CategoryDictionary } from "../data/category-dictionary.js";
 import { openDataFile } from "../data/open-data-file.js";
 import { LeafcastError } from "../errors.js";
 import type { ResolvedSchema } from "../schema/load-dataset-schema.js";
@@ -39,7 +40,7 @@ export interface FitTreesFromFileResult {
  * await writeForestFile("runs/demo/forests.json", forests);
  */
 export async function fitTreesFromFile(
-  dataPath: string,
+  dataPath: string | readonly string[],
   schema: ResolvedSchema,
   config: ResolvedTrainingConfig,
   options: FitTreesFromFileOptions = {},
@@ -56,13 +57,22 @@ export async function fitTreesFromFile(
     settings.sampleRows,
     config.seed,
   );
-  const reader = openDataFile(dataPath, schema, {
-    batchRows: config.batchRows,
-    badRows: options.badRows,
-    rejectsPath: options.rejectsPath,
-    signal: options.signal,
-  });
-  for await (const batch of reader.batches()) reservoir.add(batch);
+  // One dictionary per categorical column across all files, so a code means one value everywhere.
+  const dictionaries = new Map<string, CategoryDictionary>();
+  const paths = typeof dataPath === "string" ? [dataPath] : dataPath;
+  for (const [i, path] of paths.entries()) {
+    const reader = openDataFile(path, schema, {
+      batchRows: config.batchRows,
+      badRows: options.badRows,
+      rejectsPath:
+        options.rejectsPath === undefined || paths.length === 1
+          ? options.rejectsPath
+          : `${options.rejectsPath}.${i + 1}`,
+      signal: options.signal,
+      dictionaries,
+    });
+    for await (const batch of reader.batches()) reservoir.add(batch);
+  }
   const n = reservoir.size;
   const weight = schema.weight === null ? null : reservoir.numbers(schema.weight);
   const positiveRate = new Map<string, number>();
@@ -77,7 +87,7 @@ export async function fitTreesFromFile(
       {
         code: "no_forest_outcome",
         message: `expected an outcome with a positive rate of at least ${settings.minForestRate} (trees.minForestRate), found ${rates || "no rows"}`,
-        file: dataPath,
+        file: typeof dataPath === "string" ? dataPath : dataPath.join(", "),
       },
     ]);
   }

@@ -1,4 +1,5 @@
 import type { GrowNode } from "./grow-node.js";
+import { groupSegments } from "./group-segments.js";
 import { addHistogram, subtractHistogram } from "./histogram-arithmetic.js";
 import { HistogramPool } from "./histogram-pool.js";
 import type { TrainingBuffers } from "./training-buffers.js";
@@ -24,26 +25,19 @@ export class NodeHistograms {
     private readonly buffers: TrainingBuffers,
     private readonly pool: TreeTaskPool,
     /** Block histograms the shared buffer holds (at least the most blocks of one node). */
-    private readonly capacity: number,
+    readonly capacity: number,
   ) {
     this.free = new HistogramPool(buffers.histSize);
   }
 
   /** Sets node.hist for every node from its rows. */
   async build(nodes: readonly GrowNode[]): Promise<void> {
-    const size = this.buffers.histSize;
     let tasks = new TaskList();
     let planned: { node: GrowNode; first: number; blocks: number }[] = [];
     const flush = async (): Promise<void> => {
       if (planned.length === 0) return;
       await this.pool.run(TreeTaskOp.histogram, tasks.ints());
-      const blockHist = this.buffers.blockHist;
-      for (const { node, first, blocks } of planned) {
-        const hist = this.free.take();
-        hist.set(blockHist.subarray(first * size, (first + 1) * size));
-        for (let b = 1; b < blocks; b++) addHistogram(hist, blockHist, (first + b) * size);
-        node.hist = hist;
-      }
+      for (const { node, first, blocks } of planned) node.hist = this.collect(first, blocks);
       tasks = new TaskList();
       planned = [];
     };
@@ -55,6 +49,19 @@ export class NodeHistograms {
       for (const block of blocks) tasks.add(block.rows, tasks.length, ...block.segments);
     }
     await flush();
+  }
+
+  /**
+   * A node's histogram from the block histograms first .. first + blocks - 1 of
+   * the round just run, added in block order.
+   */
+  collect(first: number, blocks: number): Float64Array {
+    const size = this.buffers.histSize;
+    const blockHist = this.buffers.blockHist;
+    const hist = this.free.take();
+    hist.set(blockHist.subarray(first * size, (first + 1) * size));
+    for (let b = 1; b < blocks; b++) addHistogram(hist, blockHist, (first + b) * size);
+    return hist;
   }
 
   /** The histogram of parent's other child: parent minus `child`. */
@@ -71,23 +78,4 @@ export class NodeHistograms {
       node.hist = null;
     }
   }
-}
-
-/** Groups segments, in order, into blocks that close once they hold `blockRows` rows. */
-function groupSegments(
-  segments: readonly number[],
-  blockRows: number,
-): { rows: number; segments: number[] }[] {
-  const blocks: { rows: number; segments: number[] }[] = [];
-  let current: { rows: number; segments: number[] } | null = null;
-  for (let k = 0; k < segments.length; k += 2) {
-    if (current === null) {
-      current = { rows: 0, segments: [] };
-      blocks.push(current);
-    }
-    current.segments.push(segments[k], segments[k + 1]);
-    current.rows += segments[k + 1] - segments[k];
-    if (current.rows >= blockRows) current = null;
-  }
-  return blocks;
 }

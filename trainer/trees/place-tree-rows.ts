@@ -3,7 +3,8 @@ import type { TrainingBuffers } from "./training-buffers.js";
 
 /**
  * Puts one tree's rows in buffers.rows: all training rows, or a seeded
- * rowFraction of them (selection sampling, so they stay ascending). The
+ * rowFraction of them (selection sampling, so they stay ascending). fitOneForest
+ * calls it only for a row sample: the gradient round places all rows itself. The
  * training rows left out go to buffers.otherRows after the validation rows,
  * to be scored by traversal. Returns the number of the tree's rows.
  *

@@ -40,34 +40,80 @@ export function runTreeTasks(
           b.sums,
           slot,
         );
+        if (ints[f + 3] >= 0)
+          packTrainingRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 3]);
         break;
       }
-      case TreeTaskOp.partition:
-        b.counts[ints[f + 4]] = partitionRows(
-          b.bins,
-          b.columnCount,
-          b.rows,
-          b.ordered,
-          ints[f],
-          ints[f + 1],
-          ints[f + 2],
-          b.goesRight,
-          256 * ints[f + 3],
-          scratch.rows,
-          scratch.gradients,
-        );
+      case TreeTaskOp.partition: {
+        // [histSlot, smallerSide, column, node, countSlot, start0, end0, ...]
+        const slot = ints[f];
+        const right = ints[f + 1];
+        const hist =
+          slot < 0 ? null : b.blockHist.subarray(b.histSize * slot, b.histSize * (slot + 1));
+        if (hist !== null) hist.fill(0);
+        let countSlot = ints[f + 4];
+        for (let s = f + 5; s < at; s += 2) {
+          const start = ints[s];
+          const end = ints[s + 1];
+          const left = partitionRows(
+            b.placed,
+            b.placedWords,
+            b.placedStride,
+            b.rows,
+            b.ordered,
+            start,
+            end,
+            ints[f + 2],
+            b.goesRight,
+            256 * ints[f + 3],
+            scratch.rows,
+            scratch.gradients,
+            scratch.words,
+          );
+          b.counts[countSlot++] = left;
+          // The smaller child's block histogram while the segment is still in cache.
+          if (hist !== null) {
+            const from = right === 0 ? start : start + left;
+            const to = right === 0 ? start + left : end;
+            accumulateHistogram(b.placed, b.placedStride, b.columnCount, from, to, b.ordered, hist);
+          }
+        }
         break;
+      }
       case TreeTaskOp.histogram: {
         const base = b.histSize * ints[f];
         const hist = b.blockHist.subarray(base, base + b.histSize);
         hist.fill(0);
         for (let s = f + 1; s < at; s += 2) {
-          accumulateHistogram(b.bins, b.columnCount, b.rows, ints[s], ints[s + 1], b.ordered, hist);
+          accumulateHistogram(
+            b.placed,
+            b.placedStride,
+            b.columnCount,
+            ints[s],
+            ints[s + 1],
+            b.ordered,
+            hist,
+          );
         }
         break;
       }
       case TreeTaskOp.addLeaf:
-        addLeafValue(b.rows, ints[f], ints[f + 1], b.score, b.nodeValue[ints[f + 2]]);
+        if (size === 3) {
+          addLeafValue(b.rows, ints[f], ints[f + 1], b.score, b.nodeValue[ints[f + 2]]);
+        } else {
+          addSplitValues(
+            b.placed,
+            b.placedStride,
+            b.rows,
+            ints[f],
+            ints[f + 1],
+            ints[f + 3],
+            ints[f + 2],
+            b.goesRight,
+            b.nodeValue,
+            b.score,
+          );
+        }
         break;
       case TreeTaskOp.traverse:
         addTreeByTraversal(
@@ -83,22 +129,8 @@ export function runTreeTasks(
           b.score,
         );
         break;
-      case TreeTaskOp.addSplit:
-        addSplitValues(
-          b.bins,
-          b.columnCount,
-          b.rows,
-          ints[f],
-          ints[f + 1],
-          ints[f + 2],
-          ints[f + 3],
-          b.goesRight,
-          b.nodeValue,
-          b.score,
-        );
-        break;
-      case TreeTaskOp.order:
-        orderGradients(b.rows, b.gradHess, b.ordered, ints[f], ints[f + 1]);
+      case TreeTaskOp.place:
+        placeRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 2] === 1);
         break;
       default:
         throw new Error(`trees: unknown task op ${op}`);
@@ -106,10 +138,13 @@ export function runTreeTasks(
   }
 }
 
-/** A thread's own partition buffers: rows and gradient pairs of one segment. */
+/** A thread's own partition buffers (rows, gradient pairs and placed bins of one segment). */
 export interface TaskScratch {
   readonly rows: Uint32Array;
   readonly gradients: Float64Array;
+  readonly words: Uint32Array;
+  /** buffers.bins as 32-bit words when its rows are whole words (a view, not a copy). */
+  readonly binWords: Uint32Array | null;
 }
 
 /**
@@ -119,20 +154,76 @@ export interface TaskScratch {
  * const scratch = createTaskScratch(buffers);
  */
 export function createTaskScratch(buffers: TrainingBuffers): TaskScratch {
+  const bins = buffers.bins;
+  const wordRows = buffers.columnCount % 4 === 0 && bins.byteOffset % 4 === 0;
   return {
     rows: new Uint32Array(buffers.blockRows),
     gradients: new Float64Array(2 * buffers.blockRows),
+    words: new Uint32Array((buffers.blockRows * buffers.placedStride) / 4),
+    binWords: wordRows ? new Uint32Array(bins.buffer, bins.byteOffset, bins.length >> 2) : null,
   };
 }
 
-/** ordered[2i], ordered[2i + 1] = the gradient pair of row rows[i]. Kernel. */
-function orderGradients(
-  rows: Uint32Array,
-  gradHess: Float64Array,
-  ordered: Float64Array,
+/**
+ * Writes the training rows among start .. end - 1, in row order, to b.rows and
+ * their bins to b.placed from `position` on: the next tree's root, whose gradient
+ * pairs logLossGradients has just packed to the same positions. Kernel.
+ */
+function packTrainingRows(
+  b: TrainingBuffers,
+  binWords: Uint32Array | null,
   start: number,
   end: number,
+  position: number,
 ): void {
+  const { rows, bins, placed, placedWords, columnCount, placedStride, validation } = b;
+  let p = position;
+  if (validation === null && binWords !== null) {
+    // Every row trains and rows are whole words: copy the block as it is.
+    const w = columnCount >> 2;
+    placedWords.set(binWords.subarray(start * w, end * w), p * w);
+    for (let r = start; r < end; r++) rows[p++] = r;
+    return;
+  }
+  for (let r = start; r < end; r++) {
+    if (validation !== null && validation[r] === 1) continue;
+    rows[p] = r;
+    const from = r * columnCount;
+    const to = p * placedStride;
+    for (let c = 0; c < columnCount; c++) placed[to + c] = bins[from + c];
+    p++;
+  }
+}
+
+/**
+ * Copies the bins of rows[start .. end) to their positions in b.placed and, with
+ * `gradients`, their pairs from b.gradHess to b.ordered. Kernel.
+ */
+function placeRows(
+  b: TrainingBuffers,
+  binWords: Uint32Array | null,
+  start: number,
+  end: number,
+  gradients: boolean,
+): void {
+  const { rows, bins, placed, placedWords, columnCount, placedStride } = b;
+  if (binWords !== null) {
+    // Row bytes are whole words in both arrays (columnCount is a multiple of 4).
+    const w = columnCount >> 2;
+    for (let i = start; i < end; i++) {
+      const from = rows[i] * w;
+      const to = i * w;
+      for (let k = 0; k < w; k++) placedWords[to + k] = binWords[from + k];
+    }
+  } else {
+    for (let i = start; i < end; i++) {
+      const from = rows[i] * columnCount;
+      const to = i * placedStride;
+      for (let c = 0; c < columnCount; c++) placed[to + c] = bins[from + c];
+    }
+  }
+  if (!gradients) return;
+  const { gradHess, ordered } = b;
   for (let i = start; i < end; i++) {
     const r = rows[i];
     ordered[2 * i] = gradHess[2 * r];

@@ -21,16 +21,17 @@ export function addLeafValue(
 
 /**
  * Adds to each row of rows[start .. end) the value of the child it goes to under
- * node's split: nodeValue[2 node + 1] (left) or nodeValue[2 node + 2] (right). For
+ * node's split: nodeValue[2 node + 1] (left) or nodeValue[2 node + 2] (right); the
+ * split column's bin is read by position from `placed` (see partitionRows). For
  * a split whose children are both final leaves this replaces partitioning the
  * rows and then adding each leaf's value.
  *
  * @example
- * addSplitValues(bins, columnCount, rows, 0, 1000, column, node, goesRight, nodeValue, score);
+ * addSplitValues(placed, stride, rows, 0, 1000, column, node, goesRight, nodeValue, score);
  */
 export function addSplitValues(
-  bins: Uint8Array,
-  columnCount: number,
+  placed: Uint8Array,
+  stride: number,
   rows: Uint32Array,
   start: number,
   end: number,
@@ -43,8 +44,7 @@ export function addSplitValues(
   const table = 256 * node;
   const left = 2 * node + 1;
   for (let i = start; i < end; i++) {
-    const r = rows[i];
-    score[r] += nodeValue[left + goesRight[table + bins[r * columnCount + column]]];
+    score[rows[i]] += nodeValue[left + goesRight[table + placed[i * stride + column]]];
   }
 }
 

@@ -40,8 +40,10 @@ interface TreeArrays {
  * branches cannot go. The leaf limit is respected by splitting, within a level,
  * the nodes with the largest gains first.
  *
- * Of two siblings only the smaller gets a histogram from its rows; the larger is
- * the parent's minus it (NodeHistograms). A split whose two children are final
+ * Of two siblings only the smaller gets a histogram from its rows, summed in the
+ * same worker pass that partitions the parent (partitionNodes); the larger is
+ * the parent's minus it (NodeHistograms). Rows move with their bins (buffers.placed),
+ * so every node's rows are contiguous memory however deep it is. A split whose two children are final
  * leaves is not partitioned at all: its rows get their leaf values straight from
  * the split when the scores are updated (applyTreeToScores).
  *
@@ -193,13 +195,12 @@ export class TreeGrower {
 
   /** Partitions the split nodes and gives their children the histograms they need. */
   private async nextLevel(splits: readonly Split[]): Promise<GrowNode[]> {
-    const children = await partitionNodes(this.pool, this.buffers, splits);
-    const smaller = children.map(([left, right]) => (left.count <= right.count ? left : right));
-    await this.histograms.build(smaller);
+    const children = await partitionNodes(this.pool, this.buffers, this.histograms, splits);
     children.forEach(([left, right], i) => {
-      const large = smaller[i] === left ? right : left;
+      const small = left.hist !== null ? left : right;
+      const large = small === left ? right : left;
       if (this.canSplit(large.depth, large)) {
-        large.hist = this.histograms.subtract(splits[i].node, smaller[i]);
+        large.hist = this.histograms.subtract(splits[i].node, small);
       }
     });
     return children.flat();

@@ -8,14 +8,18 @@
  * The op's fields:
  * - gradients: [start, end, sumsSlot, position]: gradients, hessians and loss sums of rows
  *   start .. end - 1; position -1 writes them by row into gradHess, position >= 0 packs the
- *   training rows' pairs into `ordered` from that position (see logLossGradients).
- * - partition: [start, end, column, node, countSlot]: split a segment of buffers.rows (and
- *   its ordered gradients) in place.
+ *   training rows' pairs into `ordered` from that position (see logLossGradients), and the
+ *   rows themselves and their bins into `rows` and `placed`: the next tree's root.
+ * - partition: [histSlot, smallerSide, column, node, countSlot, start0, end0, start1, end1, ...]:
+ *   split each segment of one node in place (rows, ordered gradients and placed bins; left
+ *   counts to counts[countSlot], counts[countSlot + 1], ...) and, with histSlot >= 0, sum the
+ *   smaller child's part of every segment (side 0 left, 1 right) into that block histogram.
  * - histogram: [histSlot, start0, end0, start1, end1, ...]: one block histogram over segments, from zero.
- * - addLeaf: [start, end, node]: add nodeValue[node] to the scores of rows[start .. end).
- * - addSplit: [start, end, column, node]: add the value of the child each row goes to.
+ * - addLeaf: [start, end, node]: add nodeValue[node] to the scores of rows[start .. end); or
+ *   [start, end, node, column]: add the value of node's child each row goes to.
  * - traverse: [start, end, depth]: score otherRows[start .. end) through the current tree.
- * - order: [start, end]: copy the gradient pairs of rows[start .. end) to their positions in `ordered`.
+ * - place: [start, end, gradients]: copy the bins of rows[start .. end) to their positions in
+ *   `placed` and, with gradients 1, their pairs from gradHess to `ordered`.
  */
 export const TreeTaskOp = {
   gradients: 0,
@@ -23,8 +27,7 @@ export const TreeTaskOp = {
   histogram: 2,
   addLeaf: 3,
   traverse: 4,
-  order: 5,
-  addSplit: 6,
+  place: 5,
 } as const;
 
 /**
