@@ -1,0 +1,56 @@
+import type { HeadSetup } from "./head-setup.js";
+import { ProgressiveStats } from "./progressive-stats.js";
+import { sharedFloat64 } from "./shared-float64.js";
+import { resolveHeadStateInfo, type HeadStateInfo } from "./resolve-head-state-info.js";
+
+/**
+ * The learning state of every head of a model: FTRL-Proximal's z and n per
+ * coordinate, what it was learned under, the rows and time window it has seen,
+ * and its progressive-validation sums.
+ *
+ * z and n are laid out [coordinate][head] so that the heads of one coordinate sit
+ * in one or two cache lines: a row touches ~110 scattered coordinates, and one
+ * miss then serves every head. Coordinate `indexSize` is the bias. Both arrays
+ * live on a SharedArrayBuffer so worker threads can update them in place.
+ *
+ * @example
+ * const state = HeadState.create(setup);
+ * state.z[coordinate * state.headCount + head];
+ */
+export class HeadState {
+  readonly info: HeadStateInfo;
+  readonly z: Float64Array;
+  readonly n: Float64Array;
+  readonly progressive: ProgressiveStats;
+  /** Rows seen by every run of this state; also numbers the rows for downsampling. */
+  rowCount = 0;
+  /** Earliest and latest row timestamp seen (ms since the Unix epoch), null before any. */
+  firstTimestamp: number | null = null;
+  lastTimestamp: number | null = null;
+
+  constructor(info: HeadStateInfo) {
+    this.info = info;
+    const length = (info.indexSize + 1) * info.outcomes.length;
+    this.z = sharedFloat64(length);
+    this.n = sharedFloat64(length);
+    this.progressive = new ProgressiveStats(info.outcomes.length, info.sliceHours);
+  }
+
+  /** A fresh state (all weights zero) for a checked setup. */
+  static create(setup: HeadSetup): HeadState {
+    return new HeadState(resolveHeadStateInfo(setup));
+  }
+
+  get headCount(): number {
+    return this.info.outcomes.length;
+  }
+
+  /** Encoded index space plus the bias coordinate. */
+  get coordinateCount(): number {
+    return this.info.indexSize + 1;
+  }
+
+  get biasCoordinate(): number {
+    return this.info.indexSize;
+  }
+}

@@ -1,0 +1,106 @@
+import { availableParallelism } from "node:os";
+import { checkHeadBatch } from "./check-head-batch.js";
+import { checkResume } from "./check-resume.js";
+import type { HeadRunner } from "./head-runner.js";
+import type { HeadBatch, HeadSetup } from "./head-setup.js";
+import { HeadState } from "./head-state.js";
+import { InlineHeadRunner } from "./inline-head-runner.js";
+import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
+
+/**
+ * Worker threads used when the caller does not say: one per core. Measured with
+ * `npm run bench:heads` on the shared 2-core machine: two workers (each with its
+ * own copy of its heads) spend ~1.3x the CPU time per row of one thread, so with
+ * both cores free they finish ~1.5x sooner (projected from CPU time; the machine
+ * was never idle while measuring).
+ */
+export const DEFAULT_HEAD_WORKERS = Math.max(1, availableParallelism());
+
+export interface LearnHeadsOptions {
+  /** A state to continue (checked against the setup first); it is advanced in place and returned. */
+  readonly state?: HeadState;
+  /** Worker threads, each owning some heads; 0 trains on the calling thread. Results are identical either way. */
+  readonly workers?: number;
+  /**
+   * With workers: give each worker its own copy of its heads' arrays (no cache
+   * line shared between threads, twice the memory) rather than views of the
+   * state's. Default SEPARATE_BLOCKS, chosen with `npm run bench:heads`.
+   */
+  readonly workerCopies?: boolean;
+  /** Checkpoint after the batch in which the row count passes a multiple of this (0: never). */
+  readonly everyRows?: number;
+  /** Receives the up-to-date state at each checkpoint, e.g. to save it; awaited before training goes on. */
+  readonly onCheckpoint?: (state: HeadState) => void | Promise<void>;
+}
+
+/**
+ * Learns one FTRL-Proximal head per outcome over a stream of encoded batches, all
+ * heads in one pass, scoring each row before training on it (progressive
+ * validation) and downsampling negatives per head as the setup says. With
+ * `options.state` it continues a saved state: the result is exactly that of one
+ * uninterrupted run over all the rows, provided the new rows follow the old ones.
+ * If it throws, a state passed in is left part-trained: reload it from its file.
+ *
+ * @example
+ * const state = await learnHeads(encodedDays(files), setup, {
+ *   everyRows: config.checkpoint.everyRows,
+ *   onCheckpoint: (s) => saveHeadState("runs/demo/heads.state", s),
+ * });
+ * const heads = exportHeadModels(state);
+ */
+export async function learnHeads(
+  batches: AsyncIterable<HeadBatch> | Iterable<HeadBatch>,
+  setup: HeadSetup,
+  options: LearnHeadsOptions = {},
+): Promise<HeadState> {
+  const state = options.state ?? HeadState.create(setup);
+  if (options.state !== undefined) checkResume(options.state, setup);
+  const workers = options.workers ?? DEFAULT_HEAD_WORKERS;
+  const everyRows = options.everyRows ?? 0;
+  const runner: HeadRunner =
+    workers > 0
+      ? WorkerHeadRunner.start(state, workers, options.workerCopies ?? SEPARATE_BLOCKS)
+      : new InlineHeadRunner(state);
+  let batchNumber = 0;
+  try {
+    for await (const batch of batches) {
+      batchNumber++;
+      const maxRowLength = checkHeadBatch(
+        batch,
+        state.headCount,
+        state.info.indexSize,
+        batchNumber,
+      );
+      const rows = batch.encoded.rowCount;
+      if (rows === 0) continue;
+      const before = state.rowCount;
+      await runner.submit(batch, before, maxRowLength);
+      state.rowCount = before + rows;
+      if (batch.timestamps !== null) widenWindow(state, batch.timestamps, rows);
+      const due =
+        everyRows > 0 && Math.floor(state.rowCount / everyRows) > Math.floor(before / everyRows);
+      if (due && options.onCheckpoint !== undefined) {
+        await runner.drain();
+        await options.onCheckpoint(state);
+      }
+    }
+    await runner.drain();
+  } finally {
+    await runner.close();
+  }
+  return state;
+}
+
+function widenWindow(state: HeadState, timestamps: Float64Array, rows: number): void {
+  let first = state.firstTimestamp ?? Infinity;
+  let last = state.lastTimestamp ?? -Infinity;
+  for (let r = 0; r < rows; r++) {
+    const t = timestamps[r];
+    if (t < first) first = t;
+    if (t > last) last = t;
+  }
+  if (first <= last) {
+    state.firstTimestamp = first;
+    state.lastTimestamp = last;
+  }
+}

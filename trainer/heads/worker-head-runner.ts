@@ -1,0 +1,158 @@
+import { Worker } from "node:worker_threads";
+import { LeafcastError } from "../errors.js";
+import type { HeadBlock } from "./head-block.js";
+import type { HeadRunner } from "./head-runner.js";
+import type { HeadBatch } from "./head-setup.js";
+import type { HeadState } from "./head-state.js";
+import type { HeadWorkerData, HeadWorkerMessage, HeadWorkerReply } from "./head-worker.js";
+import { makeFtrlRule } from "./make-ftrl-rule.js";
+import { mergeHeadBlocks } from "./merge-head-blocks.js";
+import { STAT_FIELDS } from "./progressive-stats.js";
+import { SharedBatchBuffers } from "./shared-batch-buffers.js";
+import { sharedFloat64 } from "./shared-float64.js";
+import { splitHeadBlocks } from "./split-head-blocks.js";
+
+/** Whether workers get their own copies of their heads' arrays: measured in bench/heads.ts. */
+export const SEPARATE_BLOCKS = true;
+
+/**
+ * Trains heads on worker threads, each owning a block of heads in shared memory.
+ * One batch is in flight at a time, in one of two shared buffers, so the caller
+ * reads and encodes the next batch while the workers train on this one. Every
+ * head sees the same rows in the same order as on one thread, so results are
+ * bit for bit those of InlineHeadRunner.
+ *
+ * @example
+ * const runner = WorkerHeadRunner.start(state, 2);
+ * await runner.submit(batch, state.rowCount, maxRowLength);
+ * await runner.drain(); // state.z and state.n are current
+ * await runner.close();
+ */
+export class WorkerHeadRunner implements HeadRunner {
+  private readonly state: HeadState;
+  private readonly blocks: HeadBlock[];
+  private readonly workers: WorkerChannel[];
+  private readonly buffers = [new SharedBatchBuffers(), new SharedBatchBuffers()];
+  private turn = 0;
+  private inflight: Promise<unknown> = Promise.resolve();
+
+  private constructor(state: HeadState, blocks: HeadBlock[]) {
+    this.state = state;
+    this.blocks = blocks;
+    const rule = makeFtrlRule(state.info);
+    this.workers = blocks.map((block) => new WorkerChannel({ block, rule }));
+  }
+
+  /**
+   * Splits the heads over min(threads, heads) workers and starts them; with
+   * `copies`, each worker's heads get their own arrays (see splitHeadBlocks).
+   */
+  static start(state: HeadState, threads: number, copies = SEPARATE_BLOCKS): WorkerHeadRunner {
+    const groups = Math.min(threads, state.headCount);
+    return new WorkerHeadRunner(state, splitHeadBlocks(state, groups, copies));
+  }
+
+  async submit(batch: HeadBatch, rowBase: number, maxRowLength: number): Promise<void> {
+    const buffers = this.buffers[this.turn];
+    this.turn ^= 1;
+    const kernelBatch = buffers.fill(batch, this.state.headCount, rowBase, maxRowLength);
+    const stats = this.state.progressive;
+    if (batch.timestamps !== null) {
+      stats.assignSlots(batch.timestamps, batch.encoded.rowCount, buffers.slots);
+    }
+    await this.inflight;
+    const grown = this.growSlices();
+    this.inflight = Promise.all(
+      this.workers.map((worker, b) =>
+        worker.run({ batch: kernelBatch, sliceStats: grown ? this.blocks[b].sliceStats : null }),
+      ),
+    );
+    // A failure surfaces at the next await of `inflight`, not as an unhandled rejection.
+    this.inflight.catch(() => undefined);
+  }
+
+  async drain(): Promise<void> {
+    await this.inflight;
+    mergeHeadBlocks(this.state, this.blocks);
+  }
+
+  async close(): Promise<void> {
+    await this.inflight.catch(() => undefined);
+    await Promise.all(this.workers.map((worker) => worker.terminate()));
+  }
+
+  /** Gives every block room for the slices registered so far; true when any grew. Workers must be idle. */
+  private growSlices(): boolean {
+    const stats = this.state.progressive;
+    stats.ensureCapacity();
+    let grown = false;
+    this.blocks.forEach((block, b) => {
+      if (block.z === this.state.z) {
+        if (block.sliceStats !== stats.sliceStats) {
+          this.blocks[b] = { ...block, sliceStats: stats.sliceStats };
+          grown = true;
+        }
+        return;
+      }
+      const hb = block.heads.length;
+      let capacity = block.sliceStats.length / (hb * STAT_FIELDS);
+      if (capacity >= stats.sliceCount) return;
+      while (capacity < stats.sliceCount) capacity *= 2;
+      const larger = sharedFloat64(capacity * hb * STAT_FIELDS);
+      larger.set(block.sliceStats);
+      this.blocks[b] = { ...block, sliceStats: larger };
+      grown = true;
+    });
+    return grown;
+  }
+}
+
+/** One worker thread and the batch it is working on. */
+class WorkerChannel {
+  private readonly worker: Worker;
+  private pending: { resolve: () => void; reject: (error: Error) => void } | null = null;
+  private failure: Error | null = null;
+
+  constructor(data: HeadWorkerData) {
+    // From dist the worker is compiled JavaScript; from the .ts sources (vitest,
+    // tsx) a small module registers tsx in the worker first.
+    const fromSource = import.meta.url.endsWith(".ts");
+    const entry = fromSource ? "./head-worker-from-source.mjs" : "./head-worker.js";
+    this.worker = new Worker(new URL(entry, import.meta.url), { workerData: data });
+    this.worker.on("message", (reply: HeadWorkerReply) => {
+      if ("error" in reply) this.settle(workerError(reply.error));
+      else this.settle(null);
+    });
+    this.worker.on("error", (error) => this.settle(error));
+    this.worker.on("exit", (code) => {
+      if (this.pending !== null) this.settle(workerError(`worker exited with code ${code}`));
+    });
+  }
+
+  run(message: HeadWorkerMessage): Promise<void> {
+    if (this.failure !== null) return Promise.reject(this.failure);
+    return new Promise((resolve, reject) => {
+      this.pending = { resolve, reject };
+      this.worker.postMessage(message);
+    });
+  }
+
+  async terminate(): Promise<void> {
+    await this.worker.terminate();
+  }
+
+  private settle(error: Error | null): void {
+    const pending = this.pending;
+    this.pending = null;
+    if (error !== null) this.failure ??= error;
+    if (pending === null) return;
+    if (error === null) pending.resolve();
+    else pending.reject(error);
+  }
+}
+
+function workerError(message: string): Error {
+  return new LeafcastError("heads", [
+    { code: "worker_failed", message: `a head-training worker failed: ${message}` },
+  ]);
+}
