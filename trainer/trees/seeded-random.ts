@@ -33,10 +33,24 @@ export class SeededRandom {
   /** A uniform integer in 0 .. n - 1 (n <= 2^32); rejection keeps it unbiased. */
   nextInt(n: number): number {
     if (n <= 1) return 0;
+    if (n > 4294967296) return this.nextLargeInt(n);
     const limit = 4294967296 - (4294967296 % n);
     let x = this.nextUint32();
     while (x >= limit) x = this.nextUint32();
     return x % n;
+  }
+
+  /**
+   * Uniform in [0, n) for n above 2^32 (a reservoir past 2^32 rows): 53 random bits,
+   * rejection-sampled so that no value is favoured.
+   */
+  private nextLargeInt(n: number): number {
+    const span = 2 ** 53;
+    const limit = span - (span % n);
+    while (true) {
+      const x = (this.nextUint32() >>> 11) * 4294967296 + this.nextUint32();
+      if (x < limit) return x % n;
+    }
   }
 
   /** A generator for a sub-task (e.g. tree t), independent of how much this one has drawn. */
