@@ -104,3 +104,17 @@ export interface EncodedBatch {
   readonly index: Int32Array;
   readonly value: Float64Array | null;
 }
+
+/**
+ * Everything the scorer needs: the trees, how rows are encoded for the heads, the
+ * heads, and each head's weight in the combined ranking score. The artifact is a
+ * serialization of exactly this.
+ */
+export interface ScoringModel {
+  readonly contract: FeatureContract;
+  readonly forests: readonly ForestModel[];
+  readonly encoding: EncodingSpec;
+  readonly heads: readonly HeadModel[];
+  /** Per head, in the same order: the outcome's weight in the combined score sum(valueWeight * q). */
+  readonly valueWeights: readonly number[];
+}
