@@ -23,7 +23,7 @@ export interface PlotlineChunk extends WrittenBatch {
 }
 
 /**
- * Generates the Plotline impression log (see datasets/plotline/SCENARIO.md) in
+ * Generates the Plotline impression log (see DEVELOPERS.md, "The Plotline scenario") in
  * chunks of `chunkRows` rows, in time order, as fresh typed arrays that a caller
  * may keep; with `reuseArrays`, every chunk fills the same arrays instead, which
  * spares allocation for a consumer that is done with a chunk before it asks for

@@ -41,7 +41,7 @@ export interface PlotlinePopulation {
   /** First global row of each day; dayFirstRow[days] = rows. */
   readonly dayFirstRow: Float64Array;
   readonly dayStart: Float64Array;
-  /** Harvest-season progress of each day, 0..1 (see SCENARIO.md). */
+  /** Harvest-season progress of each day, 0..1 (see DEVELOPERS.md, "The Plotline scenario"). */
   readonly daySeason: Float64Array;
   readonly dayWeekend: Uint8Array;
   /** Share of impressions that are plot tours, 0 before the new type's day. */

@@ -110,7 +110,7 @@ export function resolveTrainingConfig(
     },
     heads: {
       outcomes: h.outcomes ?? null,
-      alpha: h.alpha ?? 0.05,
+      alpha: h.alpha ?? 0.01,
       beta: h.beta ?? 1,
       lambda1: h.lambda1 ?? 0.5,
       lambda2: h.lambda2 ?? 1,
