@@ -14,6 +14,12 @@ import { saveHeadState } from "../heads/save-head-state.js";
 import type { HeadState } from "../heads/head-state.js";
 import { learnHeadsFromFiles } from "../pipeline/learn-heads-from-files.js";
 import { headReportSummary, renderHeadSummary } from "../pipeline/head-report-summary.js";
+import { artifactInputOf } from "../pipeline/artifact-input-of.js";
+import { scoreItemsFromFile } from "../pipeline/score-items-from-file.js";
+import { exportArtifact } from "../artifact/export-artifact.js";
+import { buildArtifact } from "../artifact/build-artifact.js";
+import { latencyRow } from "../artifact/latency-row.js";
+import { formatLatencyTable } from "../artifact/format-latency-table.js";
 
 export interface DemoOptions {
   /** Folder for everything the demo writes. */
@@ -32,7 +38,21 @@ export interface DemoResult {
   readonly rows: number;
   readonly forestsPath: string;
   readonly headsPath: string;
+  readonly artifactPath: string;
 }
+
+/**
+ * Value of each outcome in the combined ranking score. Hide weighs strongly
+ * negative: a feed tuned to engagement alone would show what people then hide.
+ */
+export const demoValueWeights: Readonly<Record<string, number>> = {
+  open: 1,
+  react: 2,
+  reply: 4,
+  save: 3,
+  reshare: 5,
+  hide: -20,
+};
 
 /** The demo's training configuration, written beside its outputs so a reader can see and reuse it. */
 export const demoConfig = {
@@ -148,5 +168,33 @@ export async function runDemo(options: DemoOptions): Promise<DemoResult> {
     }
   }
   log(`   heads saved under ${headsDir}`);
-  return { dataFiles: written.map((w) => w.path), rows, forestsPath, headsPath };
+
+  const artifactPath = join(options.out, "scorer.json");
+  const input = artifactInputOf(fitted.forests, learned.state, demoValueWeights, {
+    name: `plotline demo, seed ${options.seed}`,
+    dataWindows: [
+      { stage: "trees", files: fitFiles, rows: fitted.rowsRead, from: null, to: null },
+      {
+        stage: "heads",
+        files: written.map((w) => w.path),
+        rows: learned.state.rowCount,
+        from: timeOrNull(learned.state.firstTimestamp),
+        to: timeOrNull(learned.state.lastTimestamp),
+      },
+    ],
+  });
+  const exported = await exportArtifact(artifactPath, input);
+  log(
+    `6. export: ${artifactPath}, ${(exported.bytes / 1024).toFixed(0)} KiB, ${exported.checksum.slice(0, 23)}...`,
+  );
+  const last = written[written.length - 1];
+  const items = await scoreItemsFromFile(last.path, schema, 2000);
+  const latency = latencyRow(buildArtifact(input), items, { repetitions: 5 });
+  log(`   latency of one thread on ${items.length} items of ${last.path}:`);
+  log(formatLatencyTable([latency]).replace(/^/gm, "   "));
+  return { dataFiles: written.map((w) => w.path), rows, forestsPath, headsPath, artifactPath };
+}
+
+function timeOrNull(ms: number | null): string | null {
+  return ms === null ? null : new Date(ms).toISOString();
 }
