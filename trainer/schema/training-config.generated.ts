@@ -164,7 +164,7 @@ export const trainingConfigDocument = {
         "alpha": {
           "type": "number",
           "exclusiveMinimum": 0,
-          "description": "FTRL-Proximal alpha (per-coordinate learning-rate scale). Default 0.01: with about 100-200 leaf features active per row, larger values let the latest rows swing predictions and hurt calibration."
+          "description": "FTRL-Proximal alpha (per-coordinate learning-rate scale). With 100-200 leaf features active per row, larger values let the latest rows swing predictions and hurt calibration. Default 0.01."
         },
         "beta": {
           "type": "number",
@@ -375,7 +375,7 @@ export interface Heads {
    */
   outcomes?: string[];
   /**
-   * FTRL-Proximal alpha (per-coordinate learning-rate scale). Default 0.01: with about 100-200 leaf features active per row, larger values let the latest rows swing predictions and hurt calibration.
+   * FTRL-Proximal alpha (per-coordinate learning-rate scale). With 100-200 leaf features active per row, larger values let the latest rows swing predictions and hurt calibration. Default 0.01.
    */
   alpha?: number;
   /**
