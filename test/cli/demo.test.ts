@@ -1,8 +1,9 @@
 import { existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it, vi } from "vitest";
 import { loadScorer } from "../../scorer/index.js";
+import { runCli } from "../../trainer/cli/main.js";
 import { runDemo } from "../../trainer/demo/run-demo.js";
 
 const dir = mkdtempSync(join(tmpdir(), "leafcast-demo-"));
@@ -43,5 +44,45 @@ describe("the end-to-end demo", () => {
       expect(text).toContain(step);
     }
     expect(text).toMatch(/day 09 NE\/calibration: open \d/);
+
+    // The serving commands on the demo's outputs: export, describe, score a day's file.
+    const artifact = join(dir, "cli-scorer.json");
+    const scores = join(dir, "scores.csv");
+    const quiet = vi.spyOn(process.stdout, "write").mockImplementation(() => true);
+    try {
+      const exported = await runCli([
+        "export-scorer",
+        "--trees",
+        result.forestsPath,
+        "--heads",
+        result.headsPath,
+        "--out",
+        artifact,
+        "--value",
+        "hide=-20",
+      ]);
+      expect(exported).toBe(0);
+      expect(await runCli(["describe-scorer", artifact, "--json"])).toBe(0);
+      const scored = await runCli([
+        "score",
+        result.dataFiles[8],
+        "--scorer",
+        artifact,
+        "--schema",
+        "datasets/plotline.schema.json",
+        "--out",
+        scores,
+      ]);
+      expect(scored).toBe(0);
+    } finally {
+      quiet.mockRestore();
+    }
+    const lines2 = readFileSync(scores, "utf8").trim().split("\n");
+    expect(lines2[0]).toBe("p_open,p_react,p_reply,p_save,p_reshare,p_hide,combined");
+    expect(lines2).toHaveLength(1 + 1500);
+    const [first] = lines2.slice(1).map((l) => l.split(",").map(Number));
+    const fromScorer = loadScorer(readFileSync(artifact, "utf8"));
+    expect(fromScorer.outcomes).toEqual(["open", "react", "reply", "save", "reshare", "hide"]);
+    expect(first.slice(0, 6).every((p) => p > 0 && p < 1)).toBe(true);
   });
 });

@@ -5,6 +5,11 @@ import { Command, CommanderError } from "commander";
 import { LeafcastError } from "../errors.js";
 import { toolVersion } from "../tool-version.js";
 import { registerDemoCommand } from "./commands/demo.js";
+import { registerDescribeScorerCommand } from "./commands/describe-scorer.js";
+import { registerExportScorerCommand } from "./commands/export-scorer.js";
+import { registerLatencyCommand } from "./commands/latency.js";
+import { registerScoreCommand } from "./commands/score-file.js";
+import { ScorerError } from "../../scorer/scorer-error.js";
 import { registerFitTreesCommand } from "./commands/fit-trees.js";
 import { registerInspectCommand } from "./commands/inspect.js";
 import { registerLearnHeadsCommand } from "./commands/learn-heads.js";
@@ -24,6 +29,10 @@ export function buildProgram(): Command {
   registerFitTreesCommand(program);
   registerLearnHeadsCommand(program);
   registerUpdateHeadsCommand(program);
+  registerExportScorerCommand(program);
+  registerScoreCommand(program);
+  registerDescribeScorerCommand(program);
+  registerLatencyCommand(program);
   registerDemoCommand(program);
   return program;
 }
@@ -38,7 +47,7 @@ export async function runCli(argv: readonly string[]): Promise<number> {
     return 0;
   } catch (error) {
     if (error instanceof CommanderError) return error.exitCode;
-    if (error instanceof LeafcastError) {
+    if (error instanceof LeafcastError || error instanceof ScorerError) {
       process.stderr.write(`${error.message}\n`);
       return 2;
     }
