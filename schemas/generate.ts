@@ -51,7 +51,6 @@ export async function renderModule(module: GeneratedModule): Promise<string> {
   });
   return [
     `// Generated from ${module.schemaFile} by schemas/generate.ts: do not edit; run \`npm run schemas\`.`,
-    "/* eslint-disable */",
     "",
     `export const ${module.constName} = ${JSON.stringify(schema, null, 2)} as const;`,
     "",

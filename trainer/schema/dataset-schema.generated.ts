@@ -1,5 +1,4 @@
 // Generated from schemas/dataset.schema.json by schemas/generate.ts: do not edit; run `npm run schemas`.
-/* eslint-disable */
 
 export const datasetSchemaDocument = {
   "$schema": "https://json-schema.org/draft/2020-12/schema",

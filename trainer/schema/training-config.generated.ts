@@ -1,5 +1,4 @@
 // Generated from schemas/training-config.schema.json by schemas/generate.ts: do not edit; run `npm run schemas`.
-/* eslint-disable */
 
 export const trainingConfigDocument = {
   "$schema": "https://json-schema.org/draft/2020-12/schema",
