@@ -6,10 +6,12 @@ import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options
 
 /**
  * Text files do not show chunk boundaries, so CSV and NDJSON are generated in
- * chunks this small: a chunk's columns then stay in the caches between being
- * generated and being formatted (about 15 % less CPU than 65,536-row chunks here).
+ * chunks this small: a chunk's 39 columns (about 0.4 MB at 2,048 rows) then
+ * stay in the caches between being generated and being read row by row for
+ * formatting (8,192 rows was about 15 % faster than 65,536 here, and 2,048
+ * about 5 % faster again; 1,024 was no better).
  */
-const TEXT_CHUNK_ROWS = 8192;
+const TEXT_CHUNK_ROWS = 2048;
 
 /**
  * Generates the Plotline log and streams it to `path` in `format`; the file

@@ -46,6 +46,18 @@ describe("writeNumberText", () => {
     );
   });
 
+  it("writes whole numbers up to 2^53 as String() does (fast-check)", () => {
+    // Timestamps and counts beyond int32 take the split head/eight-digit path;
+    // String() of a safe integer is its plain decimal digits (ECMA-262; common practice).
+    fc.assert(
+      fc.property(fc.maxSafeNat(), (v) => text(v, 0) === String(v) && text(-v, 2) === String(-v)),
+      { numRuns: 20_000 },
+    );
+    for (const v of [2 ** 31, 2 ** 31 + 1, 1e8 * 21 - 1, 1e8 * 21, 1e10 - 1, 2 ** 53 - 1]) {
+      expect(text(v, 0)).toBe(String(v));
+    }
+  });
+
   it("writes 32-bit integers as String() does (fast-check)", () => {
     fc.assert(
       fc.property(fc.integer({ min: -2147483648, max: 2147483647 }), (v) => {

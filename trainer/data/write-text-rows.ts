@@ -23,12 +23,14 @@ export interface TextRowPlan {
   readonly rowEnd: Uint8Array;
   readonly missing: Uint8Array;
   /**
-   * Per column, every category's cell bytes back to back in one array, and
-   * where each starts (categoryStart[c][code] .. [code + 1]): one flat buffer
-   * keeps a 50,000-entry vocabulary cache-friendly.
+   * Per category column, every category's cell as `categoryStride[c]` int32
+   * words: the byte length, then the bytes packed little-endian (zero
+   * padded). The kernel copies whole words, so a cell is a fixed number of
+   * 4-byte stores from one place in memory instead of a byte loop with an
+   * unpredictable end and a separate table of offsets.
    */
-  readonly categoryBytes: readonly Uint8Array[];
-  readonly categoryStart: readonly Int32Array[];
+  readonly categoryWords: readonly Int32Array[];
+  readonly categoryStride: Int32Array;
   /** An upper bound on the bytes of one row. */
   readonly maxRowBytes: number;
 }
@@ -52,26 +54,31 @@ export function planTextRows(
   columns: readonly WrittenColumn[],
   layout: TextRowLayout,
 ): TextRowPlan {
-  const encoder = new TextEncoder();
   let maxRowBytes = layout.rowEnd.length;
-  const categoryBytes: Uint8Array[] = [];
-  const categoryStart: Int32Array[] = [];
+  const categoryWords: Int32Array[] = [];
+  const categoryStride = new Int32Array(columns.length);
   columns.forEach((column, c) => {
-    const texts =
+    const texts = column.type === "category" ? column.categories.map(layout.categoryText) : [];
+    const { flat, start, widest } = encodeTexts(texts);
+    const stride = 1 + Math.ceil(widest / 4);
+    const words = new Int32Array(texts.length * stride);
+    for (let t = 0; t < texts.length; t++) {
+      words[t * stride] = start[t + 1] - start[t];
+      for (let b = start[t]; b < start[t + 1]; b++) {
+        const shift = ((b - start[t]) & 3) * 8;
+        words[t * stride + 1 + ((b - start[t]) >> 2)] |= flat[b] << shift;
+      }
+    }
+    categoryWords.push(words);
+    categoryStride[c] = stride;
+    // A category cell stores whole words, so budget them, not just the text.
+    const cell =
       column.type === "category"
-        ? column.categories.map((text) => encoder.encode(layout.categoryText(text)))
-        : [];
-    const start = new Int32Array(texts.length + 1);
-    let widest = column.type === "label" ? 1 : MAX_NUMBER_BYTES;
-    texts.forEach((bytes, code) => {
-      widest = Math.max(widest, bytes.length);
-      start[code + 1] = start[code] + bytes.length;
-    });
-    const flat = new Uint8Array(start[texts.length]);
-    texts.forEach((bytes, code) => flat.set(bytes, start[code]));
-    categoryBytes.push(flat);
-    categoryStart.push(start);
-    maxRowBytes += layout.prefixes[c].length + Math.max(widest, layout.missing.length);
+        ? 4 * (stride - 1)
+        : column.type === "label"
+          ? 1
+          : MAX_NUMBER_BYTES;
+    maxRowBytes += layout.prefixes[c].length + Math.max(cell, layout.missing.length);
   });
   const prefixStart = new Int32Array(columns.length + 1);
   layout.prefixes.forEach((prefix, c) => (prefixStart[c + 1] = prefixStart[c] + prefix.length));
@@ -86,8 +93,8 @@ export function planTextRows(
     prefixStart,
     rowEnd: layout.rowEnd,
     missing: layout.missing,
-    categoryBytes,
-    categoryStart,
+    categoryWords,
+    categoryStride,
     maxRowBytes,
   };
 }
@@ -108,7 +115,8 @@ export function writeTextRows(
   out: Uint8Array,
 ): number {
   const { kinds, decimals, prefixBytes, prefixStart, rowEnd, missing } = plan;
-  const { categoryBytes, categoryStart } = plan;
+  const { categoryWords, categoryStride } = plan;
+  const view = new DataView(out.buffer, out.byteOffset, out.byteLength);
   const columnCount = kinds.length;
   let pos = 0;
   for (let r = 0; r < rowCount; r++) {
@@ -142,10 +150,11 @@ export function writeTextRows(
       } else {
         const code = (values[c] as Int32Array)[r];
         if (code >= 0) {
-          const bytes = categoryBytes[c];
-          const start = categoryStart[c];
-          const end = start[code + 1];
-          for (let i = start[code]; i < end; i++) out[pos++] = bytes[i];
+          const words = categoryWords[c];
+          const stride = categoryStride[c];
+          const at = code * stride;
+          for (let w = 1; w < stride; w++) view.setInt32(pos + 4 * w - 4, words[at + w], true);
+          pos += words[at];
         } else {
           for (let i = 0; i < missing.length; i++) out[pos++] = missing[i];
         }
@@ -154,4 +163,45 @@ export function writeTextRows(
     for (let i = 0; i < rowEnd.length; i++) out[pos++] = rowEnd[i];
   }
   return pos;
+}
+
+/**
+ * UTF-8 bytes of `texts` back to back, and where each starts. Vocabularies
+ * are mostly ASCII ids (50,000 viewers): copying char codes straight into one
+ * buffer is an order of magnitude faster than a TextEncoder call per text,
+ * which cost about 0.1 s a file; other texts go through encodeInto.
+ */
+function encodeTexts(texts: readonly string[]): {
+  flat: Uint8Array;
+  start: Int32Array;
+  widest: number;
+} {
+  const encoder = new TextEncoder();
+  const start = new Int32Array(texts.length + 1);
+  let widest = 0;
+  let ascii = true;
+  for (let t = 0; t < texts.length; t++) {
+    const text = texts[t];
+    let length = text.length;
+    for (let i = 0; i < text.length; i++) {
+      if (text.charCodeAt(i) >= 128) {
+        ascii = false;
+        length = encoder.encode(text).length;
+        break;
+      }
+    }
+    widest = Math.max(widest, length);
+    start[t + 1] = start[t] + length;
+  }
+  const flat = new Uint8Array(start[texts.length]);
+  for (let t = 0; t < texts.length; t++) {
+    const text = texts[t];
+    let pos = start[t];
+    if (ascii || pos + text.length === start[t + 1]) {
+      for (let i = 0; i < text.length; i++) flat[pos++] = text.charCodeAt(i);
+    } else {
+      encoder.encodeInto(text, flat.subarray(pos, start[t + 1]));
+    }
+  }
+  return { flat, start, widest };
 }
