@@ -1,7 +1,7 @@
 import type { ColumnarBatch } from "./columnar-batch.js";
 import type { InputPlan } from "./compile-inputs.js";
+import { fillHashedSlots, NOT_YET } from "./fill-hashed-slots.js";
 import { fillVirtualSlots } from "./fill-virtual-slots.js";
-import { murmur3Parts } from "./murmur3.js";
 import { ScorerError, type ScorerIssue } from "./scorer-error.js";
 
 /** A batch's columns resolved to the plan's features. */
@@ -14,9 +14,17 @@ export interface BoundBatch {
   readonly texts: readonly (readonly string[])[];
   readonly treeCode: readonly Int32Array[];
   readonly bucket: readonly Int32Array[];
+  /** Per cross of two features with few value pairs: pair (a * bSize + b) to bucket (-2: not hashed yet); else null. */
+  readonly crossBucket: readonly (Int32Array | null)[];
 }
 
-const NOT_YET = -2;
+/** Crosses of two features get a per-pair table while the pairs number at most this. */
+const MAX_CROSS_PAIRS = 1 << 20;
+
+interface CrossCache {
+  lists: readonly (readonly string[])[];
+  table: Int32Array;
+}
 
 interface CodeCache {
   list: readonly string[];
@@ -26,9 +34,10 @@ interface CodeCache {
 
 /**
  * Binds columnar batches to a scorer's features and fills row blocks from them.
- * Per-code work (the tree code of a text, the hash bucket of a hashed value) is
- * done once per distinct code and kept while the dictionary stays the same, so a
- * batch costs hashing only for values it is the first to use.
+ * Per-code work (the tree code of a text, the hash bucket of a hashed value or of
+ * a two-feature cross's pair) is done once per distinct code and kept while the
+ * dictionaries stay the same, so a batch costs hashing only for values it is the
+ * first to use.
  *
  * @example
  * const binder = new ColumnBinder(plan);
@@ -38,10 +47,12 @@ interface CodeCache {
 export class ColumnBinder {
   private readonly plan: InputPlan;
   private readonly caches: (CodeCache | null)[];
+  private readonly crossCaches: (CrossCache | null)[];
 
   constructor(plan: InputPlan) {
     this.plan = plan;
     this.caches = plan.categoricalNames.map(() => null);
+    this.crossCaches = plan.crossFeatures.map(() => null);
   }
 
   /** Checks that every feature has a column of the right kind and length; throws a ScorerError listing every problem. */
@@ -107,7 +118,33 @@ export class ColumnBinder {
       bucket.push(new Int32Array(0));
     });
     if (issues.length > 0) throw new ScorerError("batch", issues);
-    return { rowCount, numeric, codes, texts, treeCode, bucket };
+    const crossBucket = plan.crossFeatures.map((features, x) =>
+      this.crossCacheFor(x, features, texts),
+    );
+    return { rowCount, numeric, codes, texts, treeCode, bucket, crossBucket };
+  }
+
+  /** The pair table of a two-feature cross, kept while both dictionaries stay as they are. */
+  private crossCacheFor(
+    x: number,
+    features: Int32Array,
+    texts: readonly (readonly string[])[],
+  ): Int32Array | null {
+    if (features.length !== 2) return null;
+    const lists = [texts[features[0]], texts[features[1]]];
+    if (lists[0].length * lists[1].length > MAX_CROSS_PAIRS) return null;
+    const cache = this.crossCaches[x];
+    // The table is indexed by the second dictionary's size, so any change rebuilds it.
+    if (
+      cache !== null &&
+      cache.lists.every((list, k) => list === lists[k]) &&
+      cache.table.length === lists[0].length * lists[1].length
+    ) {
+      return cache.table;
+    }
+    const table = new Int32Array(lists[0].length * lists[1].length).fill(NOT_YET);
+    this.crossCaches[x] = { lists, table };
+    return table;
   }
 
   private cacheFor(c: number, list: readonly string[]): CodeCache {
@@ -177,47 +214,7 @@ export class ColumnBinder {
       }
     }
     fillVirtualSlots(plan, codeBlock, block, 0, count);
-    if (!withHashing) return;
-    const K = plan.hashedSlotCount;
-    const singles = plan.hashedFeature.length;
-    for (let k = 0; k < singles; k++) {
-      const c = plan.hashedFeature[k];
-      const codes = bound.codes[c];
-      const texts = bound.texts[c];
-      const bucket = bound.bucket[c];
-      for (let i = 0; i < count; i++) {
-        const code = codes[start + i];
-        let slot = -1;
-        if (code >= 0) {
-          slot = bucket[code];
-          if (slot === NOT_YET) {
-            parts[0] = plan.hashedPrefix[k];
-            parts[1] = texts[code];
-            slot = bucket[code] =
-              plan.hashedOffset + (murmur3Parts(parts, 2, plan.hashSeed) & plan.hashMask);
-          }
-        }
-        hashedSlots[i * K + k] = slot;
-      }
-    }
-    for (let x = 0; x < plan.crossFeatures.length; x++) {
-      const features = plan.crossFeatures[x];
-      const prefixes = plan.crossPrefixes[x];
-      for (let i = 0; i < count; i++) {
-        let present = true;
-        for (let k = 0; k < features.length && present; k++) {
-          const c = features[k];
-          const code = bound.codes[c][start + i];
-          present = code >= 0;
-          parts[2 * k] = prefixes[k];
-          parts[2 * k + 1] = present ? bound.texts[c][code] : "";
-        }
-        hashedSlots[i * K + singles + x] = present
-          ? plan.hashedOffset +
-            (murmur3Parts(parts, 2 * features.length, plan.hashSeed) & plan.hashMask)
-          : -1;
-      }
-    }
+    if (withHashing) fillHashedSlots(plan, bound, start, count, hashedSlots, parts);
   }
 }
 

@@ -17,6 +17,7 @@ import type { ScoreItem } from "./score-item.js";
 import { VirtualSlots } from "./virtual-slots.js";
 import { ScorerError } from "./scorer-error.js";
 import { sumLeafWeights } from "./sum-leaf-weights.js";
+import { treeGroup } from "./tree-group.js";
 
 /** The scores of one item. */
 export interface ScoreResult {
@@ -58,6 +59,7 @@ export class Scorer {
   private readonly binder: ColumnBinder;
   private readonly treeCount: number;
   private readonly chunk: number;
+  private readonly treeGroup: number;
   private readonly block: Float64Array;
   private readonly codes: Int32Array;
   private readonly slots: Int32Array;
@@ -87,6 +89,8 @@ export class Scorer {
     this.binder = new ColumnBinder(this.plan);
     this.treeCount = this.layout.treeCount;
     this.chunk = chunkRows(this.plan.stride);
+    const leavesPerTree = Math.max(1, ...this.forests.map((forest) => forest.leaves));
+    this.treeGroup = treeGroup(leavesPerTree, this.heads.lanes);
     this.block = allocateRowBlock(this.plan, this.chunk);
     this.codes = new Int32Array(this.chunk * this.plan.stride);
     this.slots = new Int32Array(this.chunk * Math.max(1, this.treeCount));
@@ -136,10 +140,14 @@ export class Scorer {
     return this.oneCombined[0];
   }
 
-  /** Scores a columnar batch (see ColumnarBatch). */
-  scoreBatch(batch: ColumnarBatch): BatchScores {
+  /**
+   * Scores a columnar batch (see ColumnarBatch); into `out` when given (see
+   * allocateScores: reusing outputs spares a serving loop fresh memory per call;
+   * entries past the batch's rows are left as they were).
+   */
+  scoreBatch(batch: ColumnarBatch, out?: BatchScores): BatchScores {
     const bound = this.binder.bind(batch);
-    const out = this.allocateScores(bound.rowCount);
+    const scores = this.outputFor(bound.rowCount, out);
     this.enter();
     try {
       for (let start = 0; start < bound.rowCount; start += this.chunk) {
@@ -153,28 +161,28 @@ export class Scorer {
           this.hashedSlots,
           this.scratch.parts,
         );
-        this.scoreChunk(count, out.arrays, out.combined, start);
+        this.scoreChunk(count, scores.arrays, scores.combined, start);
       }
     } finally {
       this.busy = false;
     }
-    return { probability: out.probability, combined: out.combined };
+    return scores.result;
   }
 
-  /** Scores a list of items, as scoreOne each, at batch speed. */
-  scoreItems(items: readonly ScoreItem[]): BatchScores {
-    const out = this.allocateScores(items.length);
+  /** Scores a list of items, as scoreOne each, at batch speed; into `out` when given. */
+  scoreItems(items: readonly ScoreItem[], out?: BatchScores): BatchScores {
+    const scores = this.outputFor(items.length, out);
     this.enter();
     try {
       for (let start = 0; start < items.length; start += this.chunk) {
         const count = Math.min(this.chunk, items.length - start);
         for (let i = 0; i < count; i++) this.fillRow(items[start + i], i, true);
-        this.scoreChunk(count, out.arrays, out.combined, start);
+        this.scoreChunk(count, scores.arrays, scores.combined, start);
       }
     } finally {
       this.busy = false;
     }
-    return { probability: out.probability, combined: out.combined };
+    return scores.result;
   }
 
   /** Candidate indexes ordered by combined score, best first (ties: lower index first). */
@@ -290,7 +298,15 @@ export class Scorer {
   ): void {
     this.traverseChunk(count);
     const heads = this.heads;
-    sumLeafWeights(this.slots, this.treeCount, count, heads.leafWeight, heads.lanes, this.z);
+    sumLeafWeights(
+      this.slots,
+      this.treeCount,
+      count,
+      heads.leafWeight,
+      heads.lanes,
+      this.treeGroup,
+      this.z,
+    );
     if (this.plan.hashedSlotCount > 0) {
       addHashedWeights(
         this.hashedSlots,
@@ -306,19 +322,45 @@ export class Scorer {
     finishScores(heads, this.z, count, probability, combined, start);
   }
 
-  private allocateScores(rowCount: number): {
-    arrays: Float64Array[];
-    probability: Record<string, Float64Array>;
-    combined: Float64Array;
-  } {
-    const arrays = this.outcomes.map(() => new Float64Array(rowCount));
+  /** Output arrays for `rowCount` rows, for scoreBatch and scoreItems to fill again and again. */
+  allocateScores(rowCount: number): BatchScores {
     const probability: Record<string, Float64Array> = Object.create(null) as Record<
       string,
       Float64Array
     >;
-    this.outcomes.forEach((outcome, h) => {
-      probability[outcome] = arrays[h];
+    for (const outcome of this.outcomes) probability[outcome] = new Float64Array(rowCount);
+    return { probability, combined: new Float64Array(rowCount) };
+  }
+
+  private outputFor(
+    rowCount: number,
+    out: BatchScores | undefined,
+  ): { arrays: Float64Array[]; combined: Float64Array; result: BatchScores } {
+    const result = out ?? this.allocateScores(rowCount);
+    const arrays = this.outcomes.map((outcome) => {
+      const array = Object.prototype.hasOwnProperty.call(result.probability, outcome)
+        ? result.probability[outcome]
+        : undefined;
+      if (!(array instanceof Float64Array) || array.length < rowCount) {
+        throw new ScorerError("scorer", [
+          {
+            code: "output_size",
+            path: `/probability/${outcome}`,
+            message: `expected a Float64Array of at least ${rowCount} entries, found ${array instanceof Float64Array ? array.length : typeof array}`,
+          },
+        ]);
+      }
+      return array;
     });
-    return { arrays, probability, combined: new Float64Array(rowCount) };
+    if (!(result.combined instanceof Float64Array) || result.combined.length < rowCount) {
+      throw new ScorerError("scorer", [
+        {
+          code: "output_size",
+          path: "/combined",
+          message: `expected a Float64Array of at least ${rowCount} entries`,
+        },
+      ]);
+    }
+    return { arrays, combined: result.combined, result };
   }
 }

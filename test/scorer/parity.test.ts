@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { columnsFromItems } from "../../scorer/columns-from-items.js";
 import { compileForest } from "../../scorer/compile-forest.js";
+import { treeGroup } from "../../scorer/tree-group.js";
 import { VirtualSlots } from "../../scorer/virtual-slots.js";
 import { createScorer } from "../../scorer/create-scorer.js";
 import { loadScorer } from "../../scorer/load-scorer.js";
@@ -117,6 +118,17 @@ describe("parity with a plain in-memory reference", () => {
         maxDifference(model, items, createScorer(model).scoreItems(items)),
       ).toBeLessThanOrEqual(TOLERANCE);
     }
+  });
+
+  it("deep trees (depth 10) take the heads kernel several tree groups per chunk, with the same sums", () => {
+    const model = asScoringModel(
+      syntheticModel({ trees: 12, depth: 10, hashBits: 8, hashedPerHead: 30, seed: 17 }),
+    );
+    expect(treeGroup(1 << 10, 6)).toBeLessThan(12);
+    const items = syntheticItems(80, 17);
+    expect(maxDifference(model, items, createScorer(model).scoreItems(items))).toBeLessThanOrEqual(
+      TOLERANCE,
+    );
   });
 
   it("an artifact round trip scores exactly as the in-memory model", () => {

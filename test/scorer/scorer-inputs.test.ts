@@ -71,6 +71,24 @@ describe("scorer inputs", () => {
     scorer.outcomes.forEach((outcome, h) => expect(out[h]).toBe(result.probability[outcome]));
   });
 
+  it("fills reused outputs, and refuses outputs that are too small", () => {
+    const items = syntheticItems(30, 4);
+    const out = scorer.allocateScores(40);
+    const again = scorer.scoreItems(items, out);
+    expect(again).toBe(out);
+    expect(Array.from(out.combined.subarray(0, 30))).toEqual(
+      Array.from(scorer.scoreItems(items).combined),
+    );
+    expect(
+      Array.from(
+        scorer.scoreBatch(columnsFromItems(scorer.features, items), out).combined.subarray(0, 30),
+      ),
+    ).toEqual(Array.from(out.combined.subarray(0, 30)));
+    expect(() => scorer.scoreItems(items, scorer.allocateScores(10))).toThrow(
+      /expected a Float64Array of at least 30 entries/,
+    );
+  });
+
   it("scores an empty batch and an empty list", () => {
     expect(scorer.scoreItems([]).combined.length).toBe(0);
     expect(scorer.rank([]).length).toBe(0);
