@@ -2,7 +2,16 @@ import js from "@eslint/js";
 import tseslint from "typescript-eslint";
 
 export default tseslint.config(
-  { ignores: ["dist/", "node_modules/", "runs/", "coverage/", "test/fixtures/", "**/*.generated.ts"] },
+  {
+    ignores: [
+      "dist/",
+      "node_modules/",
+      "runs/",
+      "coverage/",
+      "test/fixtures/",
+      "**/*.generated.ts",
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
