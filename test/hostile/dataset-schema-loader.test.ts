@@ -25,7 +25,7 @@ import {
 import { datasetIsValid, datasetSchemaFile } from "./loader-oracle.js";
 import { layoutArb } from "./text-file-cases.js";
 import { scratchDir } from "./scratch-dir.js";
-import { strictUtf8 } from "./oracle-types.js";
+import { parseStrictly } from "./oracle-types.js";
 
 const dir = scratchDir("leafcast-hostile-schema-");
 const path = join(dir, "plots.schema.json");
@@ -180,17 +180,6 @@ describe("dataset schema loader on hostile input", () => {
     );
   });
 });
-
-/** The oracle's reading of a JSON file: strict UTF-8, one leading BOM allowed, else undefined. */
-function parseStrictly(bytes: Uint8Array): unknown {
-  const text = strictUtf8(bytes);
-  if (text === null) return undefined;
-  try {
-    return JSON.parse(text.startsWith("\ufeff") ? text.slice(1) : text) as unknown;
-  } catch {
-    return undefined;
-  }
-}
 
 describe("dataset schema loader on extreme documents", () => {
   async function refusal(text: string | Buffer): Promise<LeafcastError> {

@@ -25,3 +25,14 @@ export function strictUtf8(bytes: Uint8Array): string | null {
     return null;
   }
 }
+
+/** The oracle's reading of a JSON file: strict UTF-8, one leading BOM allowed, else undefined. */
+export function parseStrictly(bytes: Uint8Array): unknown {
+  const text = strictUtf8(bytes);
+  if (text === null) return undefined;
+  try {
+    return JSON.parse(text.startsWith("\ufeff") ? text.slice(1) : text) as unknown;
+  } catch {
+    return undefined;
+  }
+}

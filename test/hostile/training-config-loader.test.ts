@@ -23,7 +23,7 @@ import {
   type Json,
 } from "./json-doc-mutations.js";
 import { configIsValid, expectedConfig, trainingConfigFile } from "./loader-oracle.js";
-import { strictUtf8 } from "./oracle-types.js";
+import { parseStrictly } from "./oracle-types.js";
 import { scratchDir } from "./scratch-dir.js";
 import { layoutArb } from "./text-file-cases.js";
 
@@ -175,17 +175,6 @@ describe("training configuration loader on hostile input", () => {
     );
   });
 });
-
-/** The oracle's reading of a JSON file: strict UTF-8, one leading BOM allowed, else undefined. */
-function parseStrictly(bytes: Uint8Array): unknown {
-  const text = strictUtf8(bytes);
-  if (text === null) return undefined;
-  try {
-    return JSON.parse(text.startsWith("\ufeff") ? text.slice(1) : text) as unknown;
-  } catch {
-    return undefined;
-  }
-}
 
 describe("training configuration loader on extreme documents", () => {
   function issues(doc: unknown): string[] {
