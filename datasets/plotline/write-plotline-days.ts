@@ -6,7 +6,8 @@ import type {
   WrittenValues,
 } from "../../trainer/data/write-columns.js";
 import { writeDataFile } from "../../trainer/data/write-data-file.js";
-import { generatePlotline, type PlotlineChunk } from "./generate-plotline.js";
+import type { PlotlineChunk } from "./generate-plotline.js";
+import { plotlineChunksAhead } from "./plotline-chunks-ahead.js";
 import { plotlineColumns } from "./plotline-columns.js";
 import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options.js";
 
@@ -35,42 +36,47 @@ export async function writePlotlineDays(
 ): Promise<WriteSummary[]> {
   const resolved = resolvePlotlineOptions(options);
   const columns = plotlineColumns(resolved);
-  const chunks = generatePlotline(options, false)[Symbol.iterator]();
+  const chunks = plotlineChunksAhead(options);
   let pending: PlotlineChunk | null = null;
   const summaries: WriteSummary[] = [];
-  for (let day = 0; day < resolved.days; day++) {
-    const dayEnd = resolved.startSeconds + (day + 1) * SECONDS_PER_DAY;
-    const last = day === resolved.days - 1;
-    // Rows are in time order, so a day is a run of whole chunks plus the head of the next one.
-    function* rowsOfDay(): Generator<WrittenBatch> {
-      while (true) {
-        if (pending === null) {
-          const next = chunks.next();
-          if (next.done === true) return;
-          pending = next.value;
+  try {
+    for (let day = 0; day < resolved.days; day++) {
+      const dayEnd = resolved.startSeconds + (day + 1) * SECONDS_PER_DAY;
+      const last = day === resolved.days - 1;
+      // Rows are in time order, so a day is a run of whole chunks plus the head of the next one.
+      async function* rowsOfDay(): AsyncGenerator<WrittenBatch> {
+        while (true) {
+          if (pending === null) {
+            const next = await chunks.next();
+            if (next.done === true) return;
+            pending = next.value;
+          }
+          const chunk: PlotlineChunk = pending;
+          const cut = last
+            ? chunk.rowCount
+            : firstRowAtOrAfter(chunk.columns.timestamp, chunk.rowCount, dayEnd);
+          if (cut === chunk.rowCount) {
+            pending = null;
+            yield chunk;
+            continue;
+          }
+          if (cut > 0) yield sliceBatch(chunk, 0, cut);
+          pending = {
+            ...chunk,
+            rowCount: chunk.rowCount - cut,
+            columns: sliceColumns(chunk.columns, cut, chunk.rowCount),
+          };
+          return;
         }
-        const chunk: PlotlineChunk = pending;
-        const cut = last
-          ? chunk.rowCount
-          : firstRowAtOrAfter(chunk.columns.timestamp, chunk.rowCount, dayEnd);
-        if (cut === chunk.rowCount) {
-          pending = null;
-          yield chunk;
-          continue;
-        }
-        if (cut > 0) yield sliceBatch(chunk, 0, cut);
-        pending = {
-          ...chunk,
-          rowCount: chunk.rowCount - cut,
-          columns: sliceColumns(chunk.columns, cut, chunk.rowCount),
-        };
-        return;
       }
+      const path = join(dir, plotlineDayFileName(day + 1, format, resolved.days));
+      const summary = await writeDataFile(path, format, columns, rowsOfDay());
+      summaries.push(summary);
+      onDay?.(summary, day + 1);
     }
-    const path = join(dir, plotlineDayFileName(day + 1, format, resolved.days));
-    const summary = await writeDataFile(path, format, columns, rowsOfDay());
-    summaries.push(summary);
-    onDay?.(summary, day + 1);
+  } finally {
+    // Stops the generator's worker when a write failed half way.
+    await chunks.return(undefined);
   }
   return summaries;
 }

@@ -1,21 +1,22 @@
 import type { DataFormat, WriteSummary } from "../../trainer/data/write-columns.js";
 import { writeDataFile } from "../../trainer/data/write-data-file.js";
-import { generatePlotline } from "./generate-plotline.js";
+import { generatesOnWorker, plotlineChunksAhead } from "./plotline-chunks-ahead.js";
 import { plotlineColumns } from "./plotline-columns.js";
 import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options.js";
 
 /**
- * Text files do not show chunk boundaries, so CSV and NDJSON are generated in
- * chunks this small: a chunk's 39 columns (about 0.4 MB at 2,048 rows) then
- * stay in the caches between being generated and being read row by row for
- * formatting (8,192 rows was about 15 % faster than 65,536 here, and 2,048
- * about 5 % faster again; 1,024 was no better).
+ * Text files do not show chunk boundaries, so CSV and NDJSON generated on the
+ * writing thread come in chunks this small: a chunk's 39 columns (about 0.4 MB
+ * at 2,048 rows) then stay in the caches between being generated and being read
+ * row by row for formatting (8,192 rows was about 15 % faster than 65,536 here,
+ * and 2,048 about 5 % faster again; 1,024 was no better). Generated on a worker,
+ * a chunk crosses cores anyway, and larger chunks spare messages.
  */
 const TEXT_CHUNK_ROWS = 2048;
 
 /**
  * Generates the Plotline log and streams it to `path` in `format`; the file
- * appears only when complete. Memory stays at about one chunk, so any number
+ * appears only when complete. Memory stays at a few chunks, so any number
  * of rows can be written. Parquet gets one row group, Arrow one record batch
  * per `chunkRows` rows. Read it with datasets/plotline.schema.json.
  *
@@ -29,11 +30,12 @@ export function writePlotline(
 ): Promise<WriteSummary> {
   const resolved = resolvePlotlineOptions(options);
   const text = format === "csv" || format === "ndjson";
-  const chunkRows = text ? Math.min(TEXT_CHUNK_ROWS, resolved.chunkRows) : resolved.chunkRows;
+  const small = text && !generatesOnWorker(options);
+  const chunkRows = small ? Math.min(TEXT_CHUNK_ROWS, resolved.chunkRows) : resolved.chunkRows;
   return writeDataFile(
     path,
     format,
     plotlineColumns(resolved),
-    generatePlotline({ ...options, chunkRows }, true),
+    plotlineChunksAhead({ ...options, chunkRows }),
   );
 }
