@@ -23,6 +23,18 @@ export interface PlotlineChunk extends WrittenBatch {
 }
 
 /**
+ * Which chunks a generator yields: chunk c (counted from 0) when c % of === index.
+ * Generators with the same options and shares 0..of-1 yield every chunk once
+ * between them, so several threads can generate one log.
+ */
+export interface PlotlineShare {
+  readonly index: number;
+  readonly of: number;
+}
+
+const WHOLE: PlotlineShare = { index: 0, of: 1 };
+
+/**
  * Generates the Plotline impression log (see DEVELOPERS.md, "The Plotline scenario") in
  * chunks of `chunkRows` rows, in time order, as fresh typed arrays that a caller
  * may keep; with `reuseArrays`, every chunk fills the same arrays instead, which
@@ -30,7 +42,9 @@ export interface PlotlineChunk extends WrittenBatch {
  * the next (the file writers are). The same options give the same rows,
  * whatever the chunk size: each stage of a row (context, features, labels)
  * draws a fixed number of uniforms from its own random stream, row after row,
- * in blocks small enough to stay in cache.
+ * in blocks small enough to stay in cache. With `share`, it yields only its
+ * share of the chunks; it still draws past the others' rows (a few percent of
+ * the cost of generating them) to keep every stream in step.
  *
  * @example
  * for (const chunk of generatePlotline({ seed: 7, days: 14, rowsPerDay: 10_000 })) {
@@ -40,6 +54,7 @@ export interface PlotlineChunk extends WrittenBatch {
 export function* generatePlotline(
   options: PlotlineOptions = {},
   reuseArrays = false,
+  share: PlotlineShare = WHOLE,
 ): Generator<PlotlineChunk> {
   const resolved = resolvePlotlineOptions(options);
   const population = buildPlotlinePopulation(resolved);
@@ -52,6 +67,16 @@ export function* generatePlotline(
   let shared: PlotlineChunkColumns | null = null;
   for (let firstRow = 0; firstRow < resolved.rows; firstRow += resolved.chunkRows) {
     const rowCount = Math.min(resolved.chunkRows, resolved.rows - firstRow);
+    if ((firstRow / resolved.chunkRows) % share.of !== share.index) {
+      // Another generator's chunk: only advance the random streams past it.
+      for (let from = 0; from < rowCount; from += BLOCK_ROWS) {
+        const n = Math.min(rowCount, from + BLOCK_ROWS) - from;
+        contextRng.fillUnits(contextUnits, n * CONTEXT_UNITS);
+        featureRng.fillUnits(featureUnits, n * FEATURE_UNITS);
+        labelRng.fillUnits53(labelUnits, n * LABEL_UNITS);
+      }
+      continue;
+    }
     if (reuseArrays && shared === null) shared = allocatePlotlineColumns(resolved.chunkRows);
     const columns = shared ?? allocatePlotlineColumns(rowCount);
     for (let from = 0; from < rowCount; from += BLOCK_ROWS) {

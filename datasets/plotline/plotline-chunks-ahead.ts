@@ -2,13 +2,13 @@ import { Worker } from "node:worker_threads";
 import { LeafcastError } from "../../trainer/errors.js";
 import { generatePlotline, type PlotlineChunk } from "./generate-plotline.js";
 import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options.js";
-import type { PlotlineWorkerReply } from "./plotline-worker.js";
+import type { PlotlineWorkerData, PlotlineWorkerReply } from "./plotline-worker.js";
 
-/** Below this many rows a worker's start-up (~40 ms) costs more than it saves. */
+/** Below this many rows the workers' start-up (~40 ms) costs more than it saves. */
 const WORKER_MIN_ROWS = 200_000;
 
 /**
- * Whether plotlineChunksAhead generates these options on a worker thread.
+ * Whether plotlineChunksAhead generates these options on worker threads.
  *
  * @example
  * generatesOnWorker({ rows: 5_000_000 }); // true
@@ -18,54 +18,83 @@ export function generatesOnWorker(options: PlotlineOptions): boolean {
 }
 
 /**
- * The chunks of generatePlotline, generated on a worker thread up to `ahead`
- * chunks before the caller asks for them, so that generating and writing (each
- * about half the cost of a row of CSV) run on two cores at once. The rows are
- * exactly those of generatePlotline: the worker runs it. Every chunk has fresh
- * arrays the caller may keep. Small runs are generated on the calling thread.
+ * The chunks of generatePlotline, in order, generated on `threads` worker
+ * threads that take turns (chunk c on worker c % threads) and work up to `ahead`
+ * chunks each before the caller asks for them. Generating a row costs about twice
+ * as much as writing it as CSV, so two generators and the writer keep two cores
+ * busy. The rows are exactly those of generatePlotline (each worker runs it for
+ * its share). Every chunk has fresh arrays the caller may keep. Small runs are
+ * generated on the calling thread.
  *
  * @example
  * await writeDataFile("plotline.csv", "csv", columns, plotlineChunksAhead({ rows: 5e6 }));
  */
 export async function* plotlineChunksAhead(
   options: PlotlineOptions = {},
-  ahead = 4,
+  threads = 2,
+  ahead = 3,
 ): AsyncGenerator<PlotlineChunk> {
   if (!generatesOnWorker(options)) {
     yield* generatePlotline(options, false);
     return;
   }
-  // From dist the worker is compiled JavaScript; from the .ts sources (vitest,
-  // tsx) a small module registers tsx in the worker first.
-  const fromSource = import.meta.url.endsWith(".ts");
-  const entry = fromSource ? "./plotline-worker-from-source.mjs" : "./plotline-worker.js";
-  const worker = new Worker(new URL(entry, import.meta.url), { workerData: options });
-  const received: PlotlineWorkerReply[] = [];
-  let wake: (() => void) | null = null;
-  const arrive = (reply: PlotlineWorkerReply): void => {
-    received.push(reply);
-    wake?.();
-    wake = null;
-  };
-  worker.on("message", arrive);
-  worker.on("error", (error) => arrive({ error: error.stack ?? error.message }));
-  worker.on("exit", (code) => arrive({ error: `the generator's worker exited with code ${code}` }));
+  const workers = Array.from(
+    { length: threads },
+    (_, index) => new ChunkWorker({ options, share: { index, of: threads } }, ahead),
+  );
   try {
-    worker.postMessage(ahead);
-    while (true) {
-      while (received.length === 0) await new Promise<void>((resolve) => (wake = resolve));
-      const reply = received.shift() as PlotlineWorkerReply;
-      if ("done" in reply) return;
-      if ("error" in reply) {
-        throw new LeafcastError("scenario", [
-          { code: "worker_failed", message: `generating rows failed: ${reply.error}` },
-        ]);
-      }
-      worker.postMessage(1);
-      yield reply.chunk;
+    for (let c = 0; ; c++) {
+      const chunk = await workers[c % threads].next();
+      if (chunk === null) return;
+      yield chunk;
     }
   } finally {
-    worker.removeAllListeners("exit");
-    await worker.terminate();
+    await Promise.all(workers.map((worker) => worker.stop()));
+  }
+}
+
+/** One generating worker and the chunks it has sent but the caller has not taken. */
+class ChunkWorker {
+  private readonly worker: Worker;
+  private readonly received: PlotlineWorkerReply[] = [];
+  private wake: (() => void) | null = null;
+
+  constructor(data: PlotlineWorkerData, ahead: number) {
+    // From dist the worker is compiled JavaScript; from the .ts sources (vitest,
+    // tsx) a small module registers tsx in the worker first.
+    const fromSource = import.meta.url.endsWith(".ts");
+    const entry = fromSource ? "./plotline-worker-from-source.mjs" : "./plotline-worker.js";
+    this.worker = new Worker(new URL(entry, import.meta.url), { workerData: data });
+    this.worker.on("message", (reply: PlotlineWorkerReply) => this.arrive(reply));
+    this.worker.on("error", (error) => this.arrive({ error: error.stack ?? error.message }));
+    this.worker.on("exit", (code) => this.arrive({ error: `the worker exited with code ${code}` }));
+    this.worker.postMessage(ahead);
+  }
+
+  /** The worker's next chunk, or null after its last. */
+  async next(): Promise<PlotlineChunk | null> {
+    while (this.received.length === 0) {
+      await new Promise<void>((resolve) => (this.wake = resolve));
+    }
+    const reply = this.received.shift() as PlotlineWorkerReply;
+    if ("done" in reply) return null;
+    if ("error" in reply) {
+      throw new LeafcastError("scenario", [
+        { code: "worker_failed", message: `generating rows failed: ${reply.error}` },
+      ]);
+    }
+    this.worker.postMessage(1);
+    return reply.chunk;
+  }
+
+  async stop(): Promise<void> {
+    this.worker.removeAllListeners("exit");
+    await this.worker.terminate();
+  }
+
+  private arrive(reply: PlotlineWorkerReply): void {
+    this.received.push(reply);
+    this.wake?.();
+    this.wake = null;
   }
 }

@@ -1,12 +1,18 @@
 /**
  * Worker-thread entry of plotlineChunksAhead: runs generatePlotline for the
- * options in workerData and posts one chunk per credit the main thread sends,
- * its column buffers transferred (not copied), then `{ done: true }`; a failure
- * is posted as `{ error }`.
+ * options and share in workerData and posts one chunk per credit the main
+ * thread sends, its column buffers transferred (not copied), then
+ * `{ done: true }`; a failure is posted as `{ error }`.
  */
 import { parentPort, workerData } from "node:worker_threads";
-import { generatePlotline, type PlotlineChunk } from "./generate-plotline.js";
+import { generatePlotline, type PlotlineChunk, type PlotlineShare } from "./generate-plotline.js";
 import type { PlotlineOptions } from "./plotline-options.js";
+
+/** Passed as workerData. */
+export interface PlotlineWorkerData {
+  readonly options: PlotlineOptions;
+  readonly share: PlotlineShare;
+}
 
 /** What the worker posts: a chunk, the end, or a failure. */
 export type PlotlineWorkerReply =
@@ -14,7 +20,8 @@ export type PlotlineWorkerReply =
 
 const port = parentPort;
 if (port !== null) {
-  const chunks = generatePlotline(workerData as PlotlineOptions, false);
+  const data = workerData as PlotlineWorkerData;
+  const chunks = generatePlotline(data.options, false, data.share);
   port.on("message", (credits: number) => {
     try {
       for (let c = 0; c < credits; c++) {

@@ -24,20 +24,23 @@ function digest(chunks: Iterable<PlotlineChunk>): Map<string, string> {
 }
 
 describe("plotlineChunksAhead", () => {
-  it("generates on a worker exactly the rows of generatePlotline", async () => {
-    expect(generatesOnWorker(options)).toBe(true);
-    const ahead: PlotlineChunk[] = [];
-    for await (const chunk of plotlineChunksAhead(options, 2)) ahead.push(chunk);
-    expect(ahead.reduce((rows, chunk) => rows + chunk.rowCount, 0)).toBe(210_000);
-    expect(ahead.map((chunk) => chunk.firstRow)).toEqual(
-      Array.from({ length: 13 }, (_, c) => c * 16_384),
-    );
-    expect(digest(ahead)).toEqual(digest(generatePlotline(options, false)));
-  });
+  it.each([1, 3])(
+    "generates on %i worker(s) exactly the rows of generatePlotline",
+    async (threads) => {
+      expect(generatesOnWorker(options)).toBe(true);
+      const ahead: PlotlineChunk[] = [];
+      for await (const chunk of plotlineChunksAhead(options, threads, 2)) ahead.push(chunk);
+      expect(ahead.reduce((rows, chunk) => rows + chunk.rowCount, 0)).toBe(210_000);
+      expect(ahead.map((chunk) => chunk.firstRow)).toEqual(
+        Array.from({ length: 13 }, (_, c) => c * 16_384),
+      );
+      expect(digest(ahead)).toEqual(digest(generatePlotline(options, false)));
+    },
+  );
 
   it("stops its worker when the caller stops early", async () => {
     let seen = 0;
-    for await (const chunk of plotlineChunksAhead(options, 3)) {
+    for await (const chunk of plotlineChunksAhead(options, 2, 3)) {
       seen += chunk.rowCount;
       if (seen >= 32_768) break;
     }
