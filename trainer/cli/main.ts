@@ -13,6 +13,7 @@ import { ScorerError } from "../../scorer/scorer-error.js";
 import { registerFitTreesCommand } from "./commands/fit-trees.js";
 import { registerInspectCommand } from "./commands/inspect.js";
 import { registerLearnHeadsCommand } from "./commands/learn-heads.js";
+import { registerPruneFeaturesCommand } from "./commands/prune-features.js";
 import { registerScenarioCommand } from "./commands/scenario.js";
 import { registerUpdateHeadsCommand } from "./commands/update-heads.js";
 
@@ -33,6 +34,7 @@ export function buildProgram(): Command {
   registerScoreCommand(program);
   registerDescribeScorerCommand(program);
   registerLatencyCommand(program);
+  registerPruneFeaturesCommand(program);
   registerDemoCommand(program);
   return program;
 }
