@@ -11,6 +11,7 @@
  *
  * Run: npm run bench:score  (options: --items N --repetitions N --cart-rows N)
  */
+import { columnsFromItems } from "../scorer/columns-from-items.js";
 import { loadScorer } from "../scorer/load-scorer.js";
 import { measureLatency } from "../scorer/measure-latency.js";
 import { buildArtifact } from "../trainer/artifact/build-artifact.js";
@@ -46,6 +47,24 @@ const loadMs = performance.now() - loadStart;
 const items = syntheticItems(itemCount);
 
 const report = measureLatency(scorer, items, { warmup: 5000, repetitions });
+
+// Process CPU time per item (user + system, a mean): on a machine shared with other
+// work, wall-clock figures swell with every process that gets the core, CPU time
+// far less, so this is the figure to compare variants by.
+const cpuNs = (): number => {
+  const usage = process.cpuUsage();
+  return (usage.user + usage.system) * 1000;
+};
+const columnar = columnsFromItems(scorer.features, items);
+const outputs = scorer.allocateScores(items.length);
+let cpuStart = cpuNs();
+for (let r = 0; r < repetitions; r++) scorer.scoreBatch(columnar, outputs);
+const batchCpuPerItem = (cpuNs() - cpuStart) / (repetitions * items.length);
+let cpuSink = 0;
+cpuStart = cpuNs();
+for (let r = 0; r < repetitions; r++)
+  for (const item of items) cpuSink += scorer.scoreOne(item).combined;
+const singleCpuPerItem = (cpuNs() - cpuStart) / (repetitions * items.length);
 
 // ml-cart: one regression tree of the same depth over the same numeric features.
 const cart = (await import("ml-cart" as string)) as MlCart;
@@ -91,6 +110,9 @@ console.log(
   `        trees only: p50 ${us(s.trees.p50)}  p99 ${us(s.trees.p99)}; heads p50 ~${us(s.headsP50)}`,
 );
 console.log(
+  `cpu:    batch ${us(batchCpuPerItem)} per item, single ${us(singleCpuPerItem)} per call (process CPU time, mean; checksum ${cpuSink.toFixed(3)})`,
+);
+console.log(
   `timer:  ${report.timer.overheadNs.toFixed(0)} ns per reading (subtracted), finest step ${report.timer.resolutionNs.toFixed(0)} ns`,
 );
 console.log(
@@ -113,5 +135,7 @@ console.log(
     single_max_ns: Math.round(s.total.max),
     ml_cart_batch_ns_per_tree_item: Math.round(cartBatchPerItem),
     load_ms: Math.round(loadMs),
+    batch_cpu_ns_per_item: Math.round(batchCpuPerItem),
+    single_cpu_ns_per_item: Math.round(singleCpuPerItem),
   }),
 );

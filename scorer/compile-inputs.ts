@@ -16,8 +16,8 @@ import type { VirtualSlots } from "./virtual-slots.js";
  * one-hot bit 2^(code + 1) (features of at most 31 values; bit 0 means missing)
  * and code slot F + f holds code + 1 (0 means missing); its number slots stay 0.
  * Number slots 2F + v hold virtual slot v (see VirtualSlots): 1 when the row's
- * value goes right at that split, else 0. A number block ends with the virtual
- * slots' table, after its rows (see allocateRowBlock).
+ * value goes right at that split, else 0, copied per feature from a row of the
+ * virtual slots' table (see fillVirtualSlots).
  */
 export interface InputPlan {
   readonly numericNames: readonly string[];
@@ -30,6 +30,13 @@ export interface InputPlan {
   readonly virtualGroupEnd: Int32Array;
   readonly virtualGroupTable: Int32Array;
   readonly virtualTable: Float64Array;
+  /**
+   * Views of the table's rows: group g's row for code + 1 = k is
+   * virtualRows[virtualGroupFirstRow[g] + k]. Made once, so a fill copies with
+   * TypedArray set (a cheaper call here than copyWithin) and allocates nothing.
+   */
+  readonly virtualRows: readonly Float64Array[];
+  readonly virtualGroupFirstRow: Int32Array;
   /** Per categorical feature: tree code of each value. */
   readonly codeOf: readonly ReadonlyMap<string, number>[];
   /** Per categorical feature: 1 when its one-hot slot is written (at most 31 values). */
@@ -86,6 +93,7 @@ export function compileInputs(
   [...numericNames, ...categoricalNames].forEach((name, f) => {
     guardedName[f] = name in Object.prototype ? 1 : 0;
   });
+  const rows = virtualTableRows(virtual);
   return {
     numericNames,
     categoricalNames,
@@ -95,6 +103,8 @@ export function compileInputs(
     virtualGroupEnd: virtual?.groupEnd ?? new Int32Array(0),
     virtualGroupTable: virtual?.groupTable ?? new Int32Array(0),
     virtualTable: virtual?.table ?? new Float64Array(0),
+    virtualRows: rows.views,
+    virtualGroupFirstRow: rows.firstRow,
     codeOf: contract.categorical.map((c) => new Map(c.values.map((value, code) => [value, code]))),
     oneHot: Uint8Array.from(contract.categorical, (c) =>
       c.values.length <= ONE_HOT_MAX_VALUES ? 1 : 0,
@@ -119,4 +129,23 @@ export function compileInputs(
     std: Float64Array.from(encoding.numeric, (entry) => entry.std),
     numericOffset: layout.numericOffset,
   };
+}
+
+/** Views of each group's table rows, in group order (see InputPlan.virtualRows). */
+function virtualTableRows(virtual: VirtualSlots | null): {
+  views: Float64Array[];
+  firstRow: Int32Array;
+} {
+  const views: Float64Array[] = [];
+  if (virtual === null) return { views, firstRow: new Int32Array(0) };
+  const groups = virtual.groupEnd.length;
+  const firstRow = new Int32Array(groups);
+  for (let g = 0; g < groups; g++) {
+    const width = virtual.groupEnd[g] - (g === 0 ? 0 : virtual.groupEnd[g - 1]);
+    const end = g + 1 < groups ? virtual.groupTable[g + 1] : virtual.table.length;
+    firstRow[g] = views.length;
+    for (let from = virtual.groupTable[g]; from < end; from += width)
+      views.push(virtual.table.subarray(from, from + width));
+  }
+  return { views, firstRow };
 }
