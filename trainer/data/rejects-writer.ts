@@ -1,5 +1,8 @@
 import { open, rename, unlink, type FileHandle } from "node:fs/promises";
-import { basename, dirname, join } from "node:path";
+import { dirname } from "node:path";
+import { removeStaleTemps } from "../io/remove-stale-temps.js";
+import { syncDirectory } from "../io/sync-directory.js";
+import { tempPathFor } from "../io/temp-path-for.js";
 import type { RejectRecord } from "./read-types.js";
 
 /**
@@ -20,8 +23,8 @@ export class RejectsWriter {
   ) {}
 
   static async open(path: string): Promise<RejectsWriter> {
-    const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.tmp`);
-    return new RejectsWriter(path, tmp, await open(tmp, "w"));
+    const tmp = tempPathFor(path);
+    return new RejectsWriter(path, tmp, await open(tmp, "wx"));
   }
 
   async write(records: readonly RejectRecord[]): Promise<void> {
@@ -31,30 +34,29 @@ export class RejectsWriter {
     await this.handle.write(text);
   }
 
-  /** Flushes, closes and renames the file into place. */
+  /**
+   * Flushes, closes and renames the file into place (on failure the temporary
+   * file is removed), then removes temporary files killed writers left.
+   */
   async commit(): Promise<void> {
-    await this.handle.sync();
-    await this.handle.close();
-    await rename(this.tmp, this.path);
+    try {
+      try {
+        await this.handle.sync();
+      } finally {
+        await this.handle.close();
+      }
+      await rename(this.tmp, this.path);
+    } catch (error) {
+      await unlink(this.tmp).catch(() => undefined);
+      throw error;
+    }
     await syncDirectory(dirname(this.path));
+    await removeStaleTemps(this.path);
   }
 
   /** Closes and removes the temporary file; the target is left as it was. */
   async discard(): Promise<void> {
     await this.handle.close().catch(() => undefined);
     await unlink(this.tmp).catch(() => undefined);
-  }
-}
-
-async function syncDirectory(dir: string): Promise<void> {
-  try {
-    const handle = await open(dir, "r");
-    try {
-      await handle.sync();
-    } finally {
-      await handle.close();
-    }
-  } catch {
-    // Some file systems refuse fsync on a directory; the rename is still atomic there.
   }
 }

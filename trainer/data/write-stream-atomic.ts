@@ -1,8 +1,8 @@
 import { open, rename, unlink } from "node:fs/promises";
-import { basename, dirname, join } from "node:path";
-
-/** Tells apart the temporary files of two writes to one path in the same millisecond. */
-let serial = 0;
+import { dirname } from "node:path";
+import { removeStaleTemps } from "../io/remove-stale-temps.js";
+import { syncDirectory } from "../io/sync-directory.js";
+import { tempPathFor } from "../io/temp-path-for.js";
 
 /** Where a streaming writer sends its bytes. */
 export interface ByteSink {
@@ -17,8 +17,9 @@ export interface ByteSink {
  * bytes to a temporary sibling of `path`; when it resolves, the file is flushed
  * to disk and renamed over `path` (then the directory is flushed), so a reader,
  * or a kill at any moment, sees either the old file or the whole new one. When
- * `produce` throws, the temporary file is removed and the error passes on.
- * Returns the number of bytes written.
+ * `produce` throws, the temporary file is removed and the error passes on;
+ * after a successful write, temporary files that killed writers of `path` left
+ * behind are removed (see removeStaleTemps). Returns the number of bytes written.
  *
  * @example
  * await writeStreamAtomic("runs/log.csv", async (sink) => {
@@ -29,11 +30,8 @@ export async function writeStreamAtomic(
   path: string,
   produce: (sink: ByteSink) => Promise<void>,
 ): Promise<number> {
-  const tmp = join(
-    dirname(path),
-    `.${basename(path)}.${process.pid}.${Date.now()}.${serial++}.tmp`,
-  );
-  const handle = await open(tmp, "w");
+  const tmp = tempPathFor(path);
+  const handle = await open(tmp, "wx");
   let bytesWritten = 0;
   const sink: ByteSink = {
     async write(bytes: Uint8Array): Promise<void> {
@@ -50,28 +48,18 @@ export async function writeStreamAtomic(
     },
   };
   try {
-    await produce(sink);
-    await handle.sync();
-  } catch (error) {
-    await handle.close().catch(() => undefined);
-    await unlink(tmp).catch(() => undefined);
-    throw error;
-  }
-  await handle.close();
-  await rename(tmp, path);
-  await syncDirectory(dirname(path));
-  return bytesWritten;
-}
-
-async function syncDirectory(dir: string): Promise<void> {
-  try {
-    const handle = await open(dir, "r");
     try {
+      await produce(sink);
       await handle.sync();
     } finally {
       await handle.close();
     }
-  } catch {
-    // Some file systems refuse fsync on a directory; the rename is still atomic there.
+    await rename(tmp, path);
+  } catch (error) {
+    await unlink(tmp).catch(() => undefined);
+    throw error;
   }
+  await syncDirectory(dirname(path));
+  await removeStaleTemps(path);
+  return bytesWritten;
 }

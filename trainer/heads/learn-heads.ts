@@ -1,4 +1,5 @@
 import { availableParallelism } from "node:os";
+import { CheckpointSchedule } from "../io/checkpoint-schedule.js";
 import { checkHeadBatch } from "./check-head-batch.js";
 import { checkResume } from "./check-resume.js";
 import type { HeadRunner } from "./head-runner.js";
@@ -29,6 +30,8 @@ export interface LearnHeadsOptions {
   readonly workerCopies?: boolean;
   /** Checkpoint after the batch in which the row count passes a multiple of this (0: never). */
   readonly everyRows?: number;
+  /** Also checkpoint after the first batch that ends this many seconds after the last checkpoint (0: never). */
+  readonly everySeconds?: number;
   /** Receives the up-to-date state at each checkpoint, e.g. to save it; awaited before training goes on. */
   readonly onCheckpoint?: (state: HeadState) => void | Promise<void>;
 }
@@ -57,6 +60,8 @@ export async function learnHeads(
   if (options.state !== undefined) checkResume(options.state, setup);
   const workers = options.workers ?? DEFAULT_HEAD_WORKERS;
   const everyRows = options.everyRows ?? 0;
+  // Rows are counted from the state's own row count (so a resumed run keeps the same rhythm); the schedule only keeps time.
+  const clock = new CheckpointSchedule(0, options.everySeconds ?? 0);
   const runner: HeadRunner =
     workers > 0
       ? WorkerHeadRunner.start(state, workers, options.workerCopies ?? SEPARATE_BLOCKS)
@@ -77,8 +82,10 @@ export async function learnHeads(
       await runner.submit(batch, before, maxRowLength);
       state.rowCount = before + rows;
       if (batch.timestamps !== null) widenWindow(state, batch.timestamps, rows);
-      const due =
+      const byRows =
         everyRows > 0 && Math.floor(state.rowCount / everyRows) > Math.floor(before / everyRows);
+      const due = clock.advance(rows) || byRows;
+      if (byRows) clock.reset();
       if (due && options.onCheckpoint !== undefined) {
         await runner.drain();
         await options.onCheckpoint(state);

@@ -123,10 +123,9 @@ class WorkerChannel {
       if ("error" in reply) this.settle(workerError(reply.error));
       else this.settle(null);
     });
-    this.worker.on("error", (error) => this.settle(error));
-    this.worker.on("exit", (code) => {
-      if (this.pending !== null) this.settle(workerError(`worker exited with code ${code}`));
-    });
+    this.worker.on("error", (error) => this.settle(workerError(error.message)));
+    // Also while idle: the next batch must fail at once, not wait for an answer that never comes.
+    this.worker.on("exit", (code) => this.settle(workerError(`worker exited with code ${code}`)));
   }
 
   run(message: HeadWorkerMessage): Promise<void> {

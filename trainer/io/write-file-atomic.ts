@@ -1,39 +1,35 @@
 import { open, rename, unlink } from "node:fs/promises";
-import { dirname, basename, join } from "node:path";
+import { dirname } from "node:path";
+import { removeStaleTemps } from "./remove-stale-temps.js";
+import { syncDirectory } from "./sync-directory.js";
+import { tempPathFor } from "./temp-path-for.js";
 
 /**
  * Writes a file so that a reader (or a kill at any moment) sees either the old
- * file or the complete new one, never a torn write: write a temporary sibling,
- * flush it to disk, rename it over the target, then flush the directory.
+ * file or the complete new one, never a torn write: write a temporary sibling
+ * (tempPathFor; created exclusively, so two writes never share one), flush it
+ * to disk, rename it over the target, then flush the directory. On any failure
+ * the temporary file is removed and the target is left as it was. After a
+ * successful write, temporary siblings that killed processes left are removed.
  *
  * @example
  * await writeFileAtomic("runs/demo/trees.json", JSON.stringify(forests));
  */
 export async function writeFileAtomic(path: string, data: string | Uint8Array): Promise<void> {
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.tmp`);
-  const handle = await open(tmp, "w");
+  const tmp = tempPathFor(path);
+  const handle = await open(tmp, "wx");
   try {
-    await handle.writeFile(data);
-    await handle.sync();
-  } catch (error) {
-    await handle.close();
-    await unlink(tmp).catch(() => undefined);
-    throw error;
-  }
-  await handle.close();
-  await rename(tmp, path);
-  await syncDirectory(dirname(path));
-}
-
-async function syncDirectory(dir: string): Promise<void> {
-  try {
-    const handle = await open(dir, "r");
     try {
+      await handle.writeFile(data);
       await handle.sync();
     } finally {
       await handle.close();
     }
-  } catch {
-    // Some file systems refuse fsync on a directory; the rename is still atomic there.
+    await rename(tmp, path);
+  } catch (error) {
+    await unlink(tmp).catch(() => undefined);
+    throw error;
   }
+  await syncDirectory(dirname(path));
+  await removeStaleTemps(path);
 }

@@ -4,6 +4,12 @@ import type { ColumnBatch } from "../data/column-batch.js";
 import { CategoryDictionary } from "../data/category-dictionary.js";
 import { openDataFile, type ReadStats } from "../data/open-data-file.js";
 import { LeafcastError } from "../errors.js";
+import { batchesAfterCheckpoint, type ReadPosition } from "../heads/batches-after-checkpoint.js";
+import { encodeHeadCheckpoint } from "../heads/encode-head-checkpoint.js";
+import type { HeadCheckpoint } from "../heads/head-checkpoint.js";
+import { headCheckpointInputs } from "../heads/head-checkpoint-inputs.js";
+import { openHeadCheckpoint } from "../heads/open-head-checkpoint.js";
+import { writeFileAtomic } from "../io/write-file-atomic.js";
 import { checkResume } from "../heads/check-resume.js";
 import { fingerprintForests } from "../heads/fingerprint-forests.js";
 import { fingerprintSchema } from "../heads/fingerprint-schema.js";
@@ -11,7 +17,6 @@ import type { HeadBatch, HeadSetup } from "../heads/head-setup.js";
 import type { HeadState } from "../heads/head-state.js";
 import { learnHeads } from "../heads/learn-heads.js";
 import { progressiveReport, type HeadProgressiveReport } from "../heads/progressive-report.js";
-import { saveHeadState } from "../heads/save-head-state.js";
 import type { ResolvedSchema } from "../schema/load-dataset-schema.js";
 import {
   checkConfigAgainstSchema,
@@ -25,10 +30,24 @@ import { measureNumericStats, type NumericStats } from "./measure-numeric-stats.
 export interface LearnHeadsFromFilesOptions {
   /** Saved heads to continue; refused (LeafcastError from "heads") when learned on other trees, schema or settings. */
   readonly state?: HeadState;
-  /** Where to save the state atomically at each checkpoint (every config.checkpoint.everyRows rows). */
+  /**
+   * Where to keep a checkpoint (e.g. `<out>.checkpoint`): the state and the
+   * position in the files, saved atomically every config.checkpoint.everyRows
+   * rows (and/or checkpointSeconds) at a batch boundary. A checkpoint found
+   * there that was made from the same files, starting state and batch size is
+   * resumed from: the rows it has learned from are read again and dropped, and
+   * the result is bit for bit that of an uninterrupted run. The caller removes
+   * it once the final state is saved.
+   */
   readonly checkpointPath?: string;
+  /** Also checkpoint once this many seconds have passed since the last (default 0: by rows only). */
+  readonly checkpointSeconds?: number;
+  /** Ignore (and in time overwrite) a checkpoint found at checkpointPath instead of resuming. */
+  readonly restart?: boolean;
   /** Called after each checkpoint save, e.g. to log. */
   readonly onCheckpoint?: (state: HeadState) => void | Promise<void>;
+  /** Told where a run resumes, when it resumes from a checkpoint. */
+  readonly onResume?: (checkpoint: HeadCheckpoint) => void;
   /** Bad-row policy of the reads (default "fail"); see openDataFile. */
   readonly badRows?: "fail" | "skip";
   /** Rejected rows go here (with several files: path.1, path.2, ...). */
@@ -83,6 +102,26 @@ export async function learnHeadsFromFiles(
     };
   };
 
+  const checkpointPath = options.checkpointPath;
+  const inputs =
+    checkpointPath === undefined
+      ? null
+      : await headCheckpointInputs(
+          paths,
+          options.state ?? null,
+          config.batchRows,
+          options.badRows ?? "fail",
+        );
+  const resume =
+    checkpointPath === undefined || inputs === null || options.restart === true
+      ? null
+      : await openHeadCheckpoint(checkpointPath, inputs);
+  if (resume !== null) options.onResume?.(resume);
+  const startState = resume?.state ?? options.state;
+  const startFile = resume?.position.file ?? 0;
+  /** Where the rows learned so far end: the file being read and its rows consumed. */
+  const position: ReadPosition = { file: startFile, rows: 0 };
+
   const dictionaries = new Map<string, CategoryDictionary>();
   const readers = paths.map((path, i) =>
     openDataFile(path, schema, {
@@ -96,10 +135,8 @@ export async function learnHeadsFromFiles(
       dictionaries,
     }),
   );
-  async function* columnBatches(): AsyncGenerator<ColumnBatch> {
-    for (const reader of readers) yield* reader.batches();
-  }
-  const stream = columnBatches();
+  const start = resume?.position ?? { file: 0, rows: 0 };
+  const stream = batchesAfterCheckpoint(readers, paths, start, position);
 
   let first: ColumnBatch | null = null;
   try {
@@ -122,16 +159,29 @@ export async function learnHeadsFromFiles(
       if (pending !== null) yield encode(pending);
       for await (const batch of stream) yield encode(batch);
     }
+    const readsBefore = resume?.reads ?? [];
+    const reads = (): ReadStats[] => [
+      ...readsBefore,
+      ...readers.slice(startFile, position.file).map((r) => ({ ...r.stats })),
+    ];
     const state = await learnHeads(headBatches(), setup, {
-      state: options.state,
+      state: startState,
       workers: options.workers ?? config.workers,
       everyRows: config.checkpoint.everyRows,
+      everySeconds: options.checkpointSeconds,
       onCheckpoint: async (s) => {
-        if (options.checkpointPath !== undefined) await saveHeadState(options.checkpointPath, s);
+        if (checkpointPath !== undefined && inputs !== null) {
+          const checkpoint = { inputs, position: { ...position }, reads: reads(), state: s };
+          await writeFileAtomic(checkpointPath, encodeHeadCheckpoint(checkpoint));
+        }
         await options.onCheckpoint?.(s);
       },
     });
-    return { state, report: progressiveReport(state), reads: readers.map((r) => r.stats) };
+    return {
+      state,
+      report: progressiveReport(state),
+      reads: [...readsBefore, ...readers.slice(startFile).map((r) => r.stats)],
+    };
   } finally {
     // Closes the file being read when learning stopped early (a refused resume, a bad row).
     await stream.return(undefined);
@@ -139,12 +189,12 @@ export async function learnHeadsFromFiles(
 
   /** The setup: a resumed run reuses the saved numeric means and stds, a fresh one measures them on the first batch. */
   async function resolveSetup(): Promise<HeadSetup> {
-    if (options.state !== undefined) {
+    if (startState !== undefined) {
       // Measuring again would move every numeric weight's meaning.
-      const saved = new Map(options.state.info.encoding.numeric.map((s) => [s.name, s]));
+      const saved = new Map(startState.info.encoding.numeric.map((s) => [s.name, s]));
       const reused = settings.numeric.map((name) => saved.get(name) ?? { name, mean: 0, std: 1 });
       const setup = setupWith(reused);
-      checkResume(options.state, setup);
+      checkResume(startState, setup);
       return setup;
     }
     if (settings.numeric.length === 0) return setupWith([]);

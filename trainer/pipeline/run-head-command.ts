@@ -1,4 +1,5 @@
 import { loadHeadState } from "../heads/load-head-state.js";
+import { removeFileIfPresent } from "../io/remove-file-if-present.js";
 import { saveHeadState } from "../heads/save-head-state.js";
 import { loadDatasetSchema } from "../schema/load-dataset-schema.js";
 import { loadTrainingConfig, resolveTrainingConfig } from "../schema/load-training-config.js";
@@ -18,12 +19,16 @@ export interface HeadCommandOptions {
   readonly rejects?: string;
   readonly quiet?: boolean;
   readonly json?: boolean;
+  readonly checkpointSeconds?: number;
+  readonly restart?: boolean;
 }
 
 /**
  * What both head commands do: load schema, configuration, trees and (to update)
- * saved heads, learn over the files with checkpoints saved to --out, save the
- * final state to --out, and print the progressive figures (text or --json).
+ * saved heads, learn over the files with checkpoints kept in `<out>.checkpoint`
+ * (resumed from when a run was cut short), save the final state to --out, and
+ * print the progressive figures (text or --json). --out is written only once,
+ * complete: a run that fails leaves it as it was.
  *
  * @example
  * await runHeadCommand("learn-heads", ["day-01.csv"], { schema: "s.json", trees: "forests.json", out: "heads.state" });
@@ -44,13 +49,24 @@ export async function runHeadCommand(
     if (options.quiet !== true && options.json !== true) process.stderr.write(`${line}\n`);
   };
   const before = state?.rowCount ?? 0;
+  const checkpointPath = `${options.out}.checkpoint`;
   const result = await learnHeadsFromFiles(files, schema, config, forests, {
     state,
-    checkpointPath: options.out,
-    onCheckpoint: (s) => log(`${name}: checkpoint at ${s.rowCount} rows saved to ${options.out}`),
+    checkpointPath,
+    checkpointSeconds: options.checkpointSeconds,
+    restart: options.restart,
+    onCheckpoint: (s) =>
+      log(`${name}: checkpoint at ${s.rowCount} rows saved to ${checkpointPath}`),
+    onResume: (c) =>
+      log(
+        `${name}: resuming from ${checkpointPath} at ${c.state.rowCount} rows (file ${c.position.file + 1}, row ${c.position.rows})`,
+      ),
     badRows: options.skipBadRows === true ? "skip" : "fail",
     rejectsPath: options.rejects,
   });
+  // The checkpoint goes first: --out may be the --heads file it was made from, and
+  // a kill between the two steps then means learning again, never resuming twice.
+  await removeFileIfPresent(checkpointPath);
   await saveHeadState(options.out, result.state);
   const summary = headReportSummary(result.report);
   const rowsRejected = result.reads.reduce((sum, r) => sum + r.rowsRejected, 0);

@@ -3,8 +3,11 @@ import type { TreeSettings } from "../schema/load-training-config.js";
 import type { BinnedFeatures } from "./binned-features.js";
 import { checkForestInputs } from "./check-forest-inputs.js";
 import { chooseValidationRows } from "./choose-validation-rows.js";
+import { CheckpointSchedule } from "../io/checkpoint-schedule.js";
 import type { FeatureImportance } from "./feature-importance.js";
 import { fitOneForest } from "./fit-one-forest.js";
+import { checkCheckpointTargets } from "./check-checkpoint-targets.js";
+import type { ForestCheckpointing, ForestProgress } from "./forest-checkpoint.js";
 import { lossBlocks, trainPositions } from "./gradient-round.js";
 import { COLUMN_SLOTS } from "./histogram-kernel.js";
 import { rowsWhere } from "./rows-where.js";
@@ -52,6 +55,8 @@ export interface TreeProgress {
   readonly secondsLeft: number;
 }
 
+export type { ForestCheckpointing } from "./forest-checkpoint.js";
+
 export interface FitForestsOptions {
   readonly settings: ForestSettings;
   readonly seed: number;
@@ -65,6 +70,8 @@ export interface FitForestsOptions {
   readonly returnScores?: boolean;
   /** Rows per histogram block (default 32,768): a node of at most this many rows goes to one worker whole. */
   readonly blockRows?: number;
+  /** Periodic checkpoints, and the progress of one to continue from. */
+  readonly checkpoint?: ForestCheckpointing;
 }
 
 /** A fitted forest with what was learned along the way. */
@@ -148,6 +155,13 @@ export async function fitForests(
   const grower = new TreeGrower(buffers, pool, layout, settings, histogramBlocks);
   const results: FittedForest[] = [];
   let treesDone = 0;
+  const checkpoint = options.checkpoint;
+  const resume = checkCheckpointTargets(checkpoint?.resume ?? null, targets);
+  const progress: ForestProgress[] = [...resume];
+  const schedule =
+    checkpoint === undefined
+      ? null
+      : new CheckpointSchedule(checkpoint.everyTrees, checkpoint.everySeconds);
   try {
     for (let f = 0; f < targets.length; f++) {
       const target = targets[f];
@@ -180,8 +194,16 @@ export async function fitForests(
         positions: settings.rowFraction < 1 ? null : positions,
         returnScores: options.returnScores === true,
         onTree,
+        afterTree:
+          checkpoint === undefined || schedule === null
+            ? undefined
+            : async (forest: ForestProgress): Promise<void> => {
+                progress[f] = forest;
+                if (schedule.advance(1)) await checkpoint.save(progress.slice(0, f + 1));
+              },
       };
-      results.push(await fitOneForest(run, target, new SeededRandom(options.seed).fork(1000 + f)));
+      const random = new SeededRandom(options.seed).fork(1000 + f);
+      results.push(await fitOneForest(run, target, random, resume[f] ?? null));
     }
   } finally {
     await pool.close();

@@ -5,11 +5,14 @@ import type { BinnedFeatures } from "./binned-features.js";
 import { chooseColumns } from "./choose-columns.js";
 import { featureImportance } from "./feature-importance.js";
 import type { FittedForest, ForestSettings, ForestTarget } from "./fit-forests.js";
+import type { ForestProgress } from "./forest-checkpoint.js";
 import { gradientRound } from "./gradient-round.js";
 import type { GrownTree } from "./grown-tree.js";
 import { placeTreeRows } from "./place-tree-rows.js";
+import { rebuildCheckpointScores } from "./rebuild-checkpoint-scores.js";
 import type { SeededRandom } from "./seeded-random.js";
 import { toTreeModel } from "./to-tree-model.js";
+import { LeafcastError } from "../errors.js";
 import type { TrainingBuffers } from "./training-buffers.js";
 import type { TreeGrower } from "./tree-grower.js";
 import { TaskList, TreeTaskOp } from "./tree-task-op.js";
@@ -32,6 +35,11 @@ export interface ForestRun {
   readonly returnScores: boolean;
   /** Called after every tree with the losses under the trees so far. */
   readonly onTree: (tree: number, trainLoss: number, validationLoss: number | null) => void;
+  /**
+   * Called after every tree with the forest's progress (complete after its last
+   * tree), e.g. to save a checkpoint; awaited before the next tree.
+   */
+  readonly afterTree?: (progress: ForestProgress) => Promise<void>;
 }
 
 /**
@@ -39,7 +47,9 @@ export interface ForestRun {
  * tree compute gradients, grow a tree on a seeded row and column sample, and add
  * it to the scores. With a validation set and patience > 0 it stops when the
  * validation loss has not improved for `patience` trees and keeps the trees up to
- * the best one.
+ * the best one. Given the `resume` progress of a checkpoint, it rebuilds the
+ * scores from the trees grown so far and goes on from there: the result is bit
+ * for bit that of a run that never stopped.
  *
  * @example
  * const fitted = await fitOneForest(run, { outcome: "open", label }, new SeededRandom(1).fork(1000));
@@ -48,21 +58,82 @@ export async function fitOneForest(
   run: ForestRun,
   target: ForestTarget,
   random: SeededRandom,
+  resume: ForestProgress | null = null,
 ): Promise<FittedForest> {
   const { binned, buffers, pool, grower, settings, validation } = run;
   const n = binned.rowCount;
   buffers.label.set(target.label);
   const base = baseLogit(target.label, run.weight, validation);
-  buffers.score.fill(base);
-  const start = await gradientRound(pool, buffers, n, run.positions);
-  const trainLoss = new Float64Array(settings.count);
-  const validationLoss = validation === null ? null : new Float64Array(settings.count);
   const stopsEarly = validation !== null && settings.patience > 0;
   const grown: GrownTree[] = [];
+  const trainLoss: number[] = [];
+  const validationLoss: number[] | null = validation === null ? null : [];
   let bestLoss = Infinity;
   let bestCount = 0;
   let bestScores: Float64Array | null = null;
-  for (let t = 0; t < settings.count; t++) {
+  let stopped = false;
+  /** Records tree t's losses; true when early stopping ends the forest here. */
+  const record = (t: number, train: number, valid: number): boolean => {
+    trainLoss.push(train);
+    validationLoss?.push(valid);
+    if (!stopsEarly) return false;
+    if (valid < bestLoss) {
+      bestLoss = valid;
+      bestCount = t + 1;
+      return false;
+    }
+    return t + 1 - bestCount >= settings.patience;
+  };
+
+  let start: { train: number; validation: number };
+  if (resume === null) {
+    buffers.score.fill(base);
+    start = await gradientRound(pool, buffers, n, run.positions);
+  } else {
+    start = { train: resume.startTrainLoss, validation: resume.startValidationLoss ?? NaN };
+    resume.trees.forEach((tree, t) => {
+      grown.push(tree);
+      stopped = record(t, resume.trainLoss[t], resume.validationLoss?.[t] ?? NaN);
+    });
+    if (run.returnScores && stopsEarly && bestCount > 0) {
+      // The scores at the best tree so far, as the uninterrupted run kept them.
+      rebuildCheckpointScores(binned, base, grown.slice(0, bestCount), buffers.score);
+      bestScores = buffers.score.slice();
+    }
+    if (!resume.complete || run.returnScores) {
+      rebuildCheckpointScores(binned, base, grown, buffers.score);
+    }
+    if (!resume.complete) {
+      // Gradients for the next tree; the loss must be the one saved after the last tree.
+      const loss = await gradientRound(pool, buffers, n, run.positions);
+      const last = grown.length - 1;
+      const saved =
+        last < 0 ? start : { train: trainLoss[last], validation: validationLoss?.[last] ?? NaN };
+      if (
+        !sameLoss(loss.train, saved.train) ||
+        (validation !== null && !sameLoss(loss.validation, saved.validation))
+      ) {
+        throw new LeafcastError("checkpoint", [
+          {
+            code: "checkpoint_mismatch",
+            message: `forest "${target.outcome}": expected the saved training loss ${saved.train} after ${grown.length} trees, found ${loss.train}; remove the checkpoint (or pass --restart) to start over`,
+          },
+        ]);
+      }
+    }
+  }
+  const progress = (): ForestProgress => ({
+    outcome: target.outcome,
+    startTrainLoss: start.train,
+    startValidationLoss: validation === null ? null : start.validation,
+    trees: grown,
+    trainLoss,
+    validationLoss,
+    complete: stopped || grown.length >= settings.count,
+  });
+
+  const alreadyComplete = resume !== null && resume.complete;
+  for (let t = grown.length; t < settings.count && !stopped && !alreadyComplete; t++) {
     const treeRandom = random.fork(t);
     let rootCount = run.trainRows.length;
     // With every training row in the tree, the gradient round has placed them already.
@@ -82,17 +153,11 @@ export async function fitOneForest(
     await applyTreeToScores(pool, buffers, tree, leaves, otherCount);
     const loss = await gradientRound(pool, buffers, n, run.positions);
     grown.push(tree);
-    trainLoss[t] = loss.train;
-    if (validationLoss !== null) validationLoss[t] = loss.validation;
+    const before = bestCount;
+    stopped = record(t, loss.train, loss.validation);
+    if (run.returnScores && bestCount !== before) bestScores = buffers.score.slice();
     run.onTree(t, loss.train, validationLoss === null ? null : loss.validation);
-    if (!stopsEarly) continue;
-    if (loss.validation < bestLoss) {
-      bestLoss = loss.validation;
-      bestCount = t + 1;
-      if (run.returnScores) bestScores = buffers.score.slice();
-    } else if (t + 1 - bestCount >= settings.patience) {
-      break;
-    }
+    await run.afterTree?.(progress());
   }
   const fitted = grown.length;
   const kept = stopsEarly ? bestCount : fitted;
@@ -109,14 +174,19 @@ export async function fitOneForest(
   if (run.returnScores) scores = kept < fitted ? bestScores : buffers.score.slice();
   return {
     forest,
-    trainLoss: trainLoss.slice(0, fitted),
-    validationLoss: validationLoss === null ? null : validationLoss.slice(0, fitted),
+    trainLoss: Float64Array.from(trainLoss),
+    validationLoss: validationLoss === null ? null : Float64Array.from(validationLoss),
     startTrainLoss: start.train,
     startValidationLoss: validation === null ? null : start.validation,
     treesFitted: fitted,
     importance: featureImportance(keptTrees, binned),
     scores,
   };
+}
+
+/** Equal bits, NaN included (a side without weight has a NaN loss). */
+function sameLoss(a: number, b: number): boolean {
+  return Object.is(a, b);
 }
 
 /**

@@ -1,13 +1,27 @@
+import { createHash } from "node:crypto";
 import { CategoryDictionary } from "../data/category-dictionary.js";
 import { openDataFile } from "../data/open-data-file.js";
 import { LeafcastError } from "../errors.js";
+import { fingerprintSchema } from "../heads/fingerprint-schema.js";
+import { inputFileIdentities } from "../io/input-file-identity.js";
+import { writeFileAtomic } from "../io/write-file-atomic.js";
 import type { ResolvedSchema } from "../schema/load-dataset-schema.js";
 import {
   checkConfigAgainstSchema,
   type ResolvedTrainingConfig,
 } from "../schema/load-training-config.js";
 import { binFeatures } from "./bin-features.js";
-import { fitForests, type TreeProgress } from "./fit-forests.js";
+import { checkForestCheckpointInputs } from "./check-forest-checkpoint-inputs.js";
+import { encodeForestCheckpoint } from "./encode-forest-checkpoint.js";
+import { fingerprintCheckpointSample } from "./fingerprint-checkpoint-sample.js";
+import {
+  fitForests,
+  type ForestCheckpointing,
+  type ForestTarget,
+  type TreeProgress,
+} from "./fit-forests.js";
+import type { ForestCheckpoint, ForestCheckpointInputs } from "./forest-checkpoint.js";
+import { openForestCheckpoint } from "./open-forest-checkpoint.js";
 import { forestFileOf, type ForestFile } from "./forest-file.js";
 import { RowReservoir } from "./row-reservoir.js";
 
@@ -17,6 +31,19 @@ export interface FitTreesFromFileOptions {
   readonly badRows?: "fail" | "skip";
   readonly rejectsPath?: string;
   readonly signal?: AbortSignal;
+  /**
+   * Where to keep a checkpoint (e.g. `<out>.checkpoint`): saved atomically every
+   * config.checkpoint.everyTrees trees (and/or checkpointSeconds), and resumed
+   * from when one made from the same files, schema, settings and sample is
+   * there. The caller removes it once the forests are saved.
+   */
+  readonly checkpointPath?: string;
+  /** Also save a checkpoint once this many seconds have passed since the last (default 0: by trees only). */
+  readonly checkpointSeconds?: number;
+  /** Ignore (and in time overwrite) a checkpoint found at checkpointPath instead of resuming. */
+  readonly restart?: boolean;
+  /** Told how many trees a checkpoint gave back, when the run resumes from one. */
+  readonly onResume?: (trees: number) => void;
 }
 
 export interface FitTreesFromFileResult {
@@ -60,6 +87,12 @@ export async function fitTreesFromFile(
   // One dictionary per categorical column across all files, so a code means one value everywhere.
   const dictionaries = new Map<string, CategoryDictionary>();
   const paths = typeof dataPath === "string" ? [dataPath] : dataPath;
+  const checkpointPath = options.checkpointPath;
+  const files = await inputFileIdentities(paths);
+  const saved =
+    checkpointPath === undefined || options.restart === true
+      ? null
+      : await openForestCheckpoint(checkpointPath, files);
   for (const [i, path] of paths.entries()) {
     const reader = openDataFile(path, schema, {
       batchRows: config.batchRows,
@@ -108,18 +141,42 @@ export async function fitTreesFromFile(
       seed: config.seed,
     },
   );
-  const fitted = await fitForests(
-    binned,
-    outcomes.map((outcome) => ({ outcome, label: reservoir.labels(outcome) })),
-    {
-      settings,
-      seed: config.seed,
-      workers: config.workers,
-      weight,
-      timestamp: schema.timestamp === null ? null : reservoir.numbers(schema.timestamp),
-      onProgress: options.onProgress,
-    },
-  );
+  const targets: ForestTarget[] = outcomes.map((outcome) => ({
+    outcome,
+    label: reservoir.labels(outcome),
+  }));
+  const timestamp = schema.timestamp === null ? null : reservoir.numbers(schema.timestamp);
+  let checkpoint: ForestCheckpointing | undefined;
+  if (checkpointPath !== undefined) {
+    const inputs: ForestCheckpointInputs = {
+      files,
+      schema: fingerprintSchema(schema),
+      settings: `sha256:${createHash("sha256")
+        .update(JSON.stringify({ seed: config.seed, trees: settings }))
+        .digest("hex")}`,
+      sample: fingerprintCheckpointSample(binned, targets, weight, timestamp),
+    };
+    if (saved !== null) {
+      checkForestCheckpointInputs(saved.inputs, inputs, checkpointPath);
+      options.onResume?.(saved.forests.reduce((sum, forest) => sum + forest.trees.length, 0));
+    }
+    checkpoint = {
+      resume: saved?.forests ?? null,
+      everyTrees: config.checkpoint.everyTrees,
+      everySeconds: options.checkpointSeconds ?? 0,
+      save: (forests: ForestCheckpoint["forests"]) =>
+        writeFileAtomic(checkpointPath, encodeForestCheckpoint({ inputs, forests })),
+    };
+  }
+  const fitted = await fitForests(binned, targets, {
+    settings,
+    seed: config.seed,
+    workers: config.workers,
+    weight,
+    timestamp,
+    onProgress: options.onProgress,
+    checkpoint,
+  });
   return {
     forests: forestFileOf(binned, fitted, settings, config.seed),
     rowsRead: reservoir.seen,
