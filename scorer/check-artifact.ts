@@ -27,7 +27,7 @@ export function checkArtifact(document: unknown): ScorerArtifact {
     fail(
       "format",
       "/format",
-      `expected "${ARTIFACT_FORMAT}", found ${JSON.stringify(format) ?? "nothing"}: this is not a Leafcast scorer artifact`,
+      `expected "${ARTIFACT_FORMAT}", found ${describeFound(format)}: this is not a Leafcast scorer artifact`,
     );
   }
   const version = Object.prototype.hasOwnProperty.call(doc, "formatVersion")
@@ -37,7 +37,7 @@ export function checkArtifact(document: unknown): ScorerArtifact {
     fail(
       "version",
       "/formatVersion",
-      `expected format version ${ARTIFACT_FORMAT_VERSION} (the only version this runtime reads), found ${JSON.stringify(version) ?? "nothing"}`,
+      `expected format version ${ARTIFACT_FORMAT_VERSION} (the only version this runtime reads), found ${describeFound(version)}`,
     );
   }
   const issues = checkJsonSchema(artifactSchemaDocument as JsonSchema, document);
@@ -57,6 +57,20 @@ export function checkArtifact(document: unknown): ScorerArtifact {
     );
   }
   return artifact;
+}
+
+/**
+ * A short description of any value, for a message. JSON.stringify would recurse
+ * through a hostile 100,000-level value (RangeError) and throws on a BigInt.
+ */
+function describeFound(value: unknown): string {
+  if (value === undefined) return "nothing";
+  if (typeof value === "string")
+    return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}...` : value);
+  if (typeof value === "number" || typeof value === "boolean") return String(value);
+  if (value === null) return "null";
+  if (Array.isArray(value)) return `an array of ${value.length}`;
+  return typeof value === "object" ? "an object" : `a ${typeof value}`;
 }
 
 function fail(code: string, path: string, message: string): never {

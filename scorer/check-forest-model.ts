@@ -1,10 +1,12 @@
 import type { FeatureContract, ForestModel } from "./model-types.js";
 import type { ScorerIssue } from "./scorer-error.js";
+import { checkTableSize } from "./check-table-size.js";
 
 /**
  * The semantic checks of one forest against a contract: depth in [1, 16], array
  * lengths matching the depth, feature indexes in range, finite thresholds and
- * leaf values, categorical codes ascending and known. Paths are the artifact's
+ * leaf values whose largest sum stays finite, categorical codes ascending and
+ * known, split tables of bounded size (see checkTableSize). Paths are the artifact's
  * JSON Pointers under `path` (tree t's node n is entry t * (2^depth - 1) + n).
  *
  * @example
@@ -37,6 +39,10 @@ function checkForest(forest: ForestModel, base: string, contract: FeatureContrac
   const leaves = nodes + 1;
   const numericCount = contract.numeric.length;
   const featureCount = numericCount + contract.categorical.length;
+  // The largest raw score a row can reach: each value finite is not enough, since
+  // 1e308 in two trees sums to Infinity (and +Infinity - Infinity to NaN).
+  let largestSum = Math.abs(forest.baseLogit);
+  let allFinite = Number.isFinite(forest.baseLogit);
   forest.trees.forEach((tree, t) => {
     const lengths: [string, number, number][] = [
       ["feature", tree.feature.length, nodes],
@@ -93,8 +99,11 @@ function checkForest(forest: ForestModel, base: string, contract: FeatureContrac
         }
       }
     }
+    let largestLeaf = 0;
     for (let k = 0; k < leaves; k++) {
+      largestLeaf = Math.max(largestLeaf, Math.abs(tree.leafValue[k]));
       if (!Number.isFinite(tree.leafValue[k])) {
+        allFinite = false;
         add(
           "not_finite",
           `${base}/leafValue/${t * leaves + k}`,
@@ -102,7 +111,16 @@ function checkForest(forest: ForestModel, base: string, contract: FeatureContrac
         );
       }
     }
+    largestSum += largestLeaf;
   });
+  if (allFinite && largestSum === Infinity) {
+    add(
+      "overflow",
+      `${base}/leafValue`,
+      "expected leaf values whose largest sum over the trees is a finite double, found one that overflows",
+    );
+  }
+  for (const issue of checkTableSize([forest], contract, 0)) add(issue.code, base, issue.message);
 }
 
 function checkCategories(

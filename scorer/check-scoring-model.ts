@@ -1,4 +1,5 @@
 import { checkForestModel } from "./check-forest-model.js";
+import { checkTableSize } from "./check-table-size.js";
 import { encodedLayout } from "./encoded-layout.js";
 import type { HeadModel, ScoringModel } from "./model-types.js";
 import type { ScorerIssue } from "./scorer-error.js";
@@ -8,7 +9,9 @@ const MAX_ISSUES = 50;
 /**
  * The semantic checks a model must pass before it is compiled for scoring: names
  * unique and resolvable, array lengths matching the depth, feature, category,
- * leaf and head indexes in range, head indexes ascending, every number finite.
+ * leaf and head indexes in range, head indexes ascending, every number finite
+ * and no sum of them able to overflow (a head's bias and weights, the value
+ * weights), compiled tables of bounded size (see checkTableSize).
  * Paths are the JSON Pointers of the same values in an artifact, so a refusal
  * names the exact entry of the file.
  *
@@ -110,6 +113,11 @@ export function checkScoringModel(model: ScoringModel): ScorerIssue[] {
       (forest) => Number.isInteger(forest.depth) && forest.depth >= 1 && forest.depth <= 16,
     );
   const width = layoutOk ? encodedLayout(model.forests, encoding).width : Infinity;
+  // Each forest alone was measured by checkForestModel; here all of them with the heads' leaf table.
+  if (layoutOk && !issues.some((issue) => issue.code === "too_large")) {
+    for (const issue of checkTableSize(model.forests, contract, model.heads.length))
+      add(issue.code, issue.path, issue.message);
+  }
   const headOutcomes = new Set<string>();
   model.heads.forEach((head, h) => {
     if (headOutcomes.has(head.outcome))
@@ -124,10 +132,20 @@ export function checkScoringModel(model: ScoringModel): ScorerIssue[] {
       `expected a value weight per head (${model.heads.length}), found ${model.valueWeights.length}`,
     );
   }
+  let valueSum = 0;
   model.valueWeights.forEach((w, h) => {
+    valueSum += Math.abs(w);
     if (!Number.isFinite(w))
       add("not_finite", `/heads/${h}/valueWeight`, `expected a finite number, found ${w}`);
   });
+  // The combined score sums valueWeight x q with q up to 1: two weights of 1e308 overflow.
+  if (valueSum === Infinity && model.valueWeights.every(Number.isFinite)) {
+    add(
+      "overflow",
+      "/heads",
+      "expected value weights whose absolute sum is a finite double, found one that overflows",
+    );
+  }
   return issues;
 }
 
@@ -149,6 +167,9 @@ function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
     return;
   }
   let previous = -1;
+  // A logit adds the bias and some of the weights: their absolute sum bounds it.
+  let sum = Math.abs(head.bias);
+  let allFinite = Number.isFinite(head.bias);
   for (let i = 0; i < head.index.length; i++) {
     const index = head.index[i];
     if (!(index >= 0 && index < width)) {
@@ -168,7 +189,17 @@ function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
       return;
     }
     previous = index;
-    if (!Number.isFinite(head.weight[i]))
+    sum += Math.abs(head.weight[i]);
+    if (!Number.isFinite(head.weight[i])) {
+      allFinite = false;
       add("not_finite", `${base}/weight/${i}`, `expected a finite number, found ${head.weight[i]}`);
+    }
+  }
+  if (allFinite && sum === Infinity) {
+    add(
+      "overflow",
+      `${base}/weight`,
+      "expected a bias and weights whose absolute sum is a finite double, found one that overflows",
+    );
   }
 }

@@ -108,6 +108,9 @@ function forestModel(
   return { outcome: forest.outcome, baseLogit: forest.baseLogit, depth: forest.depth, trees };
 }
 
+/** The "no run" value of every categorical node: one shared empty array, not one per node (a hostile file may hold millions). */
+const NO_CODES = new Int32Array(0);
+
 /** Reads runs of [node, count, code...]; returns per node its right codes (empty for a categorical node without a run), or null after an issue. */
 function readCategorySplits(
   runs: readonly number[],
@@ -117,7 +120,7 @@ function readCategorySplits(
   issues: ScorerIssue[],
 ): (Int32Array | null)[] | null {
   const categories: (Int32Array | null)[] = Array.from(feature, (f) =>
-    f >= numericCount ? new Int32Array(0) : null,
+    f >= numericCount ? NO_CODES : null,
   );
   const seen = new Set<number>();
   let at = 0;

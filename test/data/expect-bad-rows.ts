@@ -1,7 +1,7 @@
-import { mkdtempSync, readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { expect } from "vitest";
+import { afterAll, expect } from "vitest";
 import { LeafcastError } from "../../trainer/errors.js";
 import { openDataFile } from "../../trainer/data/open-data-file.js";
 import type { ReadOptions } from "../../trainer/data/read-types.js";
@@ -15,9 +15,19 @@ export interface BadRow {
   code: string;
 }
 
-/** A fresh temporary directory for one test's files. */
+/** Directories made for the test file that imported this module (vitest loads it afresh per file). */
+const made: string[] = [];
+
+// Tests call tempDir() freely, once per case: every directory goes when the file's tests end.
+afterAll(() => {
+  for (const dir of made.splice(0)) rmSync(dir, { recursive: true, force: true });
+});
+
+/** A fresh temporary directory for one test's files, removed after the calling test file's last test. */
 export function tempDir(): string {
-  return mkdtempSync(join(tmpdir(), "leafcast-readers-"));
+  const dir = mkdtempSync(join(tmpdir(), "leafcast-readers-"));
+  made.push(dir);
+  return dir;
 }
 
 /** Reads a whole file, returning the decoded columns or the error thrown. */
