@@ -10,7 +10,7 @@ const dir = mkdtempSync(join(tmpdir(), "leafcast-demo-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe("the end-to-end demo", () => {
-  it("generates, fits, learns, updates, exports a loadable scorer and times it", async () => {
+  it("generates, runs the freshness study, exports a loadable scorer, times it and writes the report", async () => {
     const lines: string[] = [];
     const result = await runDemo({
       out: dir,
@@ -22,7 +22,12 @@ describe("the end-to-end demo", () => {
     });
     expect(result.dataFiles).toHaveLength(9);
     expect(result.rows).toBe(13_500);
-    for (const path of [result.forestsPath, result.headsPath, result.artifactPath]) {
+    for (const path of [
+      result.forestsPath,
+      result.headsPath,
+      result.artifactPath,
+      result.reportPath,
+    ]) {
       expect(existsSync(path)).toBe(true);
     }
     const scorer = loadScorer(readFileSync(result.artifactPath, "utf8"));
@@ -36,14 +41,21 @@ describe("the end-to-end demo", () => {
     for (const step of [
       "1. scenario",
       "2. inspect",
-      "3. fit-trees",
-      "4. learn-heads",
-      "5. update-heads",
-      "6. export",
+      "3. fit-trees, learn-heads, update-heads",
+      "4. export",
+      "5. report",
     ]) {
       expect(text).toContain(step);
     }
-    expect(text).toMatch(/day 09 NE\/calibration: open \d/);
+    // Nine days: fit on days 1-7, one window of days 8-9 scored by the three arms.
+    expect(text).toMatch(
+      /window days 8-9: 3000 rows; NE frozen\/heads updated\/trees refit: open \d/,
+    );
+    expect(text).toContain("Findings:");
+    const page = readFileSync(result.reportPath, "utf8");
+    for (const section of ["heads", "freshness", "staleness", "importance", "latency"]) {
+      expect(page).toContain(`id="${section}"`);
+    }
 
     // The serving commands on the demo's outputs: export, describe, score a day's file.
     const artifact = join(dir, "cli-scorer.json");

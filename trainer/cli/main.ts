@@ -14,6 +14,7 @@ import { registerFitTreesCommand } from "./commands/fit-trees.js";
 import { registerInspectCommand } from "./commands/inspect.js";
 import { registerLearnHeadsCommand } from "./commands/learn-heads.js";
 import { registerPruneFeaturesCommand } from "./commands/prune-features.js";
+import { registerReportCommand } from "./commands/report.js";
 import { registerScenarioCommand } from "./commands/scenario.js";
 import { registerUpdateHeadsCommand } from "./commands/update-heads.js";
 
@@ -35,6 +36,7 @@ export function buildProgram(): Command {
   registerDescribeScorerCommand(program);
   registerLatencyCommand(program);
   registerPruneFeaturesCommand(program);
+  registerReportCommand(program);
   registerDemoCommand(program);
   return program;
 }

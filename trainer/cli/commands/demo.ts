@@ -13,11 +13,13 @@ interface DemoCommandOptions {
   readonly format: DataFormat;
 }
 
-/** `leafcast demo`: the whole job on the built-in Plotline scenario. */
+/** `leafcast demo`: the whole job on the built-in Plotline scenario, report included. */
 export function registerDemoCommand(program: Command): void {
   program
     .command("demo")
-    .description("Run the whole job end to end on the built-in Plotline scenario.")
+    .description(
+      "Run the whole job end to end on the built-in Plotline scenario, ending with the visual report (report.html in the output folder).",
+    )
     .option("-o, --out <dir>", "folder for everything the demo writes", "runs/demo")
     .option("--days <n>", "days of logs", parsePositiveInteger, 42)
     .option("--rows-per-day <n>", "impressions per day", parsePositiveInteger, 20_000)
