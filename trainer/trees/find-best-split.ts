@@ -1,4 +1,4 @@
-import { COLUMN_SLOTS } from "./histogram-kernel.js";
+import { COLUMN_SLOTS, SLOT_VALUES } from "./histogram-kernel.js";
 
 /** Limits on splits: L2 on leaf values, the smallest leaf hessian, the smallest gain. */
 export interface SplitRules {
@@ -24,22 +24,27 @@ export interface SplitChoice {
   readonly missingRight: boolean;
   /** Categorical: the value bins (contract codes) that go right, ascending; null for numeric. */
   readonly rightBins: Uint8Array | null;
-  readonly left: { readonly gradient: number; readonly hessian: number; readonly count: number };
-  readonly right: { readonly gradient: number; readonly hessian: number; readonly count: number };
+  readonly left: { readonly gradient: number; readonly hessian: number };
+  readonly right: { readonly gradient: number; readonly hessian: number };
 }
 
 /**
- * Scans a node histogram for the split with the largest gain
+ * Scans a node histogram (gradient and hessian sums per bin, see
+ * accumulateHistogram) for the split with the largest gain
  * GL^2/(HL + l2) + GR^2/(HR + l2) - G^2/(H + l2) (second-order boosting gain with L2
  * on leaf values, common practice). Numeric columns try every threshold with
  * missing rows left and right. Categorical columns order their categories by
  * G/(H + l2) and scan that order: for a binary target this finds the best
  * two-way grouping among all 2^(k-1) (Fisher 1958 for the squared-error case).
- * Returns null when no split beats minSplitGain and the leaf limits. Ties keep
- * the first column and the lowest threshold, so the choice is deterministic.
+ * Both sides must hold rows: a bin holds rows when its sums are not both zero
+ * (every row with a weight above 0 has a hessian above 0), and the sides are
+ * told apart by counting such bins, which is exact where a difference of float
+ * sums is not. Returns null when no split beats minSplitGain and the leaf limits.
+ * Ties keep the first column and the lowest threshold, so the choice is
+ * deterministic.
  *
  * @example
- * const choice = findBestSplit(hist, layout, null, G, H, count, { l2: 1, minLeafHessian: 1e-3, minSplitGain: 0 });
+ * const choice = findBestSplit(hist, layout, null, G, H, { l2: 1, minLeafHessian: 1e-3, minSplitGain: 0 });
  * choice?.column; // binned column of the best split
  */
 export function findBestSplit(
@@ -48,7 +53,6 @@ export function findBestSplit(
   allowed: Uint8Array | null,
   gradient: number,
   hessian: number,
-  count: number,
   rules: SplitRules,
 ): SplitChoice | null {
   const { l2, minLeafHessian } = rules;
@@ -58,10 +62,9 @@ export function findBestSplit(
   let bestGain = Math.max(rules.minSplitGain, 1e-10 * parent);
   let best: SplitChoice | null = null;
 
-  const gainOf = (gl: number, hl: number, cl: number): number => {
+  const gainOf = (gl: number, hl: number): number => {
     const hr = hessian - hl;
-    const cr = count - cl;
-    if (cl < 1 || cr < 1 || hl < minLeafHessian || hr < minLeafHessian) return -Infinity;
+    if (hl < minLeafHessian || hr < minLeafHessian) return -Infinity;
     const dl = hl + l2;
     const dr = hr + l2;
     if (!(dl > 0 && dr > 0)) return -Infinity;
@@ -76,7 +79,6 @@ export function findBestSplit(
     rightBins: Uint8Array | null,
     gl: number,
     hl: number,
-    cl: number,
   ): void => {
     bestGain = gain;
     best = {
@@ -85,65 +87,70 @@ export function findBestSplit(
       threshold,
       missingRight,
       rightBins,
-      left: { gradient: gl, hessian: hl, count: cl },
-      right: { gradient: gradient - gl, hessian: hessian - hl, count: count - cl },
+      left: { gradient: gl, hessian: hl },
+      right: { gradient: gradient - gl, hessian: hessian - hl },
     };
   };
 
   for (let c = 0; c < layout.columnCount; c++) {
     if (allowed !== null && allowed[c] === 0) continue;
-    const base = 3 * COLUMN_SLOTS * c;
+    const base = SLOT_VALUES * COLUMN_SLOTS * c;
     const bins = layout.valueBins[c];
-    const miss = base + 3 * bins;
+    const miss = base + SLOT_VALUES * bins;
     const mg = hist[miss];
     const mh = hist[miss + 1];
-    const mc = hist[miss + 2];
+    const hasMissing = mg !== 0 || mh !== 0;
+    // Value bins that hold rows (present.length of them), in bin order.
+    const present: number[] = [];
+    for (let t = 0; t < bins; t++) {
+      const k = base + SLOT_VALUES * t;
+      if (hist[k] !== 0 || hist[k + 1] !== 0) present.push(t);
+    }
     if (layout.columnCategorical[c] === 0) {
       let gl = 0;
       let hl = 0;
-      let cl = 0;
-      for (let t = 0; t < bins; t++) {
-        const k = base + 3 * t;
-        if (hist[k + 2] === 0) continue; // same partition as the previous threshold
+      // Thresholds at bins without rows give the same partition as the one before.
+      for (let p = 0; p < present.length; p++) {
+        const t = present[p];
+        const k = base + SLOT_VALUES * t;
         gl += hist[k];
         hl += hist[k + 1];
-        cl += hist[k + 2];
-        const right = gainOf(gl, hl, cl);
-        // Without missing rows in the node, unseen missing values follow the heavier side.
-        if (right > bestGain) choose(c, right, t, mc > 0 || hessian - hl > hl, null, gl, hl, cl);
-        if (mc > 0) {
-          const left = gainOf(gl + mg, hl + mh, cl + mc);
-          if (left > bestGain) choose(c, left, t, false, null, gl + mg, hl + mh, cl + mc);
+        const valuesRight = p < present.length - 1;
+        if (valuesRight || hasMissing) {
+          const right = gainOf(gl, hl);
+          // Without missing rows in the node, unseen missing values follow the heavier side.
+          if (right > bestGain) choose(c, right, t, hasMissing || hessian - hl > hl, null, gl, hl);
+        }
+        if (hasMissing && valuesRight) {
+          const left = gainOf(gl + mg, hl + mh);
+          if (left > bestGain) choose(c, left, t, false, null, gl + mg, hl + mh);
         }
       }
       continue;
     }
     // Categorical: order the present categories by G / (H + l2), then scan prefixes.
-    const present: number[] = [];
-    for (let t = 0; t < bins; t++) if (hist[base + 3 * t + 2] > 0) present.push(t);
     const ratio = (t: number): number => {
-      const d = hist[base + 3 * t + 1] + l2;
-      return d > 0 ? hist[base + 3 * t] / d : 0;
+      const d = hist[base + SLOT_VALUES * t + 1] + l2;
+      return d > 0 ? hist[base + SLOT_VALUES * t] / d : 0;
     };
     present.sort((a, b) => ratio(a) - ratio(b) || a - b);
     let gl = 0;
     let hl = 0;
-    let cl = 0;
     for (let k = 0; k < present.length; k++) {
-      const at = base + 3 * present[k];
+      const at = base + SLOT_VALUES * present[k];
       gl += hist[at];
       hl += hist[at + 1];
-      cl += hist[at + 2];
-      const right = gainOf(gl, hl, cl);
-      if (right > bestGain) {
-        const missingRight = mc > 0 || hessian - hl > hl;
-        choose(c, right, -1, missingRight, rightOf(present, k), gl, hl, cl);
-      }
-      if (mc > 0) {
-        const left = gainOf(gl + mg, hl + mh, cl + mc);
-        if (left > bestGain) {
-          choose(c, left, -1, false, rightOf(present, k), gl + mg, hl + mh, cl + mc);
+      const valuesRight = k < present.length - 1;
+      if (valuesRight || hasMissing) {
+        const right = gainOf(gl, hl);
+        if (right > bestGain) {
+          const missingRight = hasMissing || hessian - hl > hl;
+          choose(c, right, -1, missingRight, rightOf(present, k), gl, hl);
         }
+      }
+      if (hasMissing && valuesRight) {
+        const left = gainOf(gl + mg, hl + mh);
+        if (left > bestGain) choose(c, left, -1, false, rightOf(present, k), gl + mg, hl + mh);
       }
     }
   }

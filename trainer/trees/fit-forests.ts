@@ -9,7 +9,7 @@ import { fitOneForest } from "./fit-one-forest.js";
 import { checkCheckpointTargets } from "./check-checkpoint-targets.js";
 import type { ForestCheckpointing, ForestProgress } from "./forest-checkpoint.js";
 import { lossBlocks, trainPositions } from "./gradient-round.js";
-import { COLUMN_SLOTS } from "./histogram-kernel.js";
+import { COLUMN_SLOTS, SLOT_VALUES } from "./histogram-kernel.js";
 import { rowsWhere } from "./rows-where.js";
 import { SeededRandom } from "./seeded-random.js";
 import { createTrainingBuffers } from "./training-buffers.js";
@@ -123,7 +123,7 @@ export async function fitForests(
   const weight = options.weight ?? null;
   const positions = trainPositions(validation, n);
 
-  const histSize = 3 * COLUMN_SLOTS * binned.columnCount;
+  const histSize = SLOT_VALUES * COLUMN_SLOTS * binned.columnCount;
   const budget = Math.max(2, Math.floor(BLOCK_HISTOGRAM_BYTES / (8 * Math.max(1, histSize))));
   // Blocks grow when histograms are large, so that the root's blocks fit the budget.
   const blockRows = Math.max(options.blockRows ?? DEFAULT_BLOCK_ROWS, Math.ceil(n / (budget - 1)));

@@ -37,9 +37,13 @@ export function trainPositions(validation: Uint8Array | null, n: number): Int32A
  * scores, and returns the weighted mean log loss of the training and validation
  * rows under those scores (NaN for a side without weight). With `positions`
  * (trainPositions) the training rows' pairs go straight to buffers.ordered in
- * row order, which is where a tree on all training rows reads them; without,
- * they go to buffers.gradHess by row. Losses are summed per fixed block and the
- * blocks added in order, so they too are the same for any number of workers.
+ * row order, which is where a tree on all training rows reads them, and each
+ * block also sums its rows into a block histogram while they are in cache: the
+ * next tree's root histogram comes out of this round (buffers.rootHistBlocks;
+ * TreeGrower takes it) instead of a pass of its own. Without `positions` the
+ * pairs go to buffers.gradHess by row. Losses and histograms are summed per
+ * fixed block and the blocks added in order, so they are the same for any
+ * number of workers.
  *
  * @example
  * const { train, validation } = await gradientRound(pool, buffers, binned.rowCount, positions);
@@ -51,12 +55,19 @@ export async function gradientRound(
   positions: Int32Array | null,
 ): Promise<{ train: number; validation: number }> {
   const tasks = new TaskList();
+  const blocks = lossBlocks(n);
+  const withRoot =
+    positions !== null &&
+    buffers.histSize > 0 &&
+    buffers.blockHist.length >= blocks * buffers.histSize;
   for (let s = 0; s < n; s += LOSS_BLOCK_ROWS) {
     const end = Math.min(s + LOSS_BLOCK_ROWS, n);
     const k = tasks.length;
-    tasks.add(end - s, s, end, k, positions === null ? -1 : positions[k]);
+    tasks.add(end - s, s, end, k, positions === null ? -1 : positions[k], withRoot ? k : -1);
   }
+  buffers.rootHistBlocks[0] = 0;
   await pool.run(TreeTaskOp.gradients, tasks.ints());
+  if (withRoot) buffers.rootHistBlocks[0] = blocks;
   const sums = buffers.sums;
   let trainLoss = 0;
   let trainWeight = 0;

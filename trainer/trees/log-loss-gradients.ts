@@ -14,7 +14,8 @@ import { EXP_NEG_POW2, EXP_NEG_STEP, LOG1P_AT, LOG1P_INVERSE } from "./logistic-
  * e / (1 + e)^2, loss = max(s, 0) - y s + log1p(e), so nothing overflows and small
  * losses keep their digits. exp and log1p are computed inline from tables (see
  * logistic-tables.ts; rounding by `(x + 0.5) | 0`, since Math.round made the
- * loop twice as slow in a probe here). Kernel: no checks, no allocation.
+ * loop twice as slow in a probe here). Returns the position after the last
+ * packed pair (`position` itself when it is -1). Kernel: no checks, no allocation.
  *
  * @example
  * const out = new Float64Array(2), sums = new Float64Array(4);
@@ -32,7 +33,7 @@ export function logLossGradients(
   end: number,
   sums: Float64Array,
   sumsBase: number,
-): void {
+): number {
   const step = EXP_NEG_STEP;
   const pow2 = EXP_NEG_POW2;
   const logAt = LOG1P_AT;
@@ -83,4 +84,5 @@ export function logLossGradients(
   sums[sumsBase + 1] += trainWeight;
   sums[sumsBase + 2] += validLoss;
   sums[sumsBase + 3] += validWeight;
+  return packed;
 }

@@ -18,8 +18,9 @@ type Split = { readonly node: GrowNode; readonly choice: SplitChoice };
  * block's smaller-child rows are summed from zero by one worker right after their
  * segment is partitioned, while it is in cache; the blocks are then added in
  * order, so the histogram is the same bit for bit with any number of workers.
- * Returns the [left, right] children; the smaller (left on a tie) has its
- * histogram. The split tables must already be in buffers.goesRight.
+ * Returns the [left, right] children with their row counts; the one with less
+ * hessian (left on a tie) has its histogram. The split tables must already be in
+ * buffers.goesRight.
  *
  * @example
  * const [[left, right]] = await partitionNodes(pool, buffers, histograms, [{ node, choice }]);
@@ -32,15 +33,20 @@ export async function partitionNodes(
 ): Promise<[GrowNode, GrowNode][]> {
   const children: [GrowNode, GrowNode][] = [];
   let tasks = new TaskList();
-  let planned: { split: Split; firstBlock: number; blocks: number; firstCount: number }[] = [];
+  let planned: {
+    split: Split;
+    firstBlock: number;
+    blocks: number;
+    firstCount: number;
+    smallerRight: number;
+  }[] = [];
   let segments = 0;
   const flush = async (): Promise<void> => {
     if (planned.length === 0) return;
     await pool.run(TreeTaskOp.partition, tasks.ints());
     for (const plan of planned) {
       const pair = splitChildren(plan.split, buffers.counts, plan.firstCount);
-      const smaller = pair[0].count <= pair[1].count ? pair[0] : pair[1];
-      smaller.hist = histograms.collect(plan.firstBlock, plan.blocks);
+      pair[plan.smallerRight].hist = histograms.collect(plan.firstBlock, plan.blocks);
       children.push(pair);
     }
     tasks = new TaskList();
@@ -57,8 +63,16 @@ export async function partitionNodes(
     ) {
       await flush();
     }
-    const smallerRight = choice.left.count <= choice.right.count ? 0 : 1;
-    planned.push({ split, firstBlock: tasks.length, blocks: blocks.length, firstCount: segments });
+    // The side with less hessian stands in for the side with fewer rows (counts come
+    // from this very pass); any choice gives the same histograms, only the work differs.
+    const smallerRight = choice.left.hessian <= choice.right.hessian ? 0 : 1;
+    planned.push({
+      split,
+      firstBlock: tasks.length,
+      blocks: blocks.length,
+      firstCount: segments,
+      smallerRight,
+    });
     for (const block of blocks) {
       tasks.add(
         block.rows,
@@ -94,20 +108,22 @@ function splitChildren(
     if (end > middle) right.push(middle, end);
     leftCount += middle - start;
   }
-  if (leftCount !== choice.left.count) {
-    // The histogram's counts and the partition must agree; anything else is a bug.
-    throw new Error(
-      `trees: node ${node.id} sent ${leftCount} rows left, its histogram counted ${choice.left.count}`,
-    );
-  }
-  const child = (id: number, segments: number[], side: SplitChoice["left"]): GrowNode => ({
+  const child = (
+    id: number,
+    segments: number[],
+    count: number,
+    side: SplitChoice["left"],
+  ): GrowNode => ({
     id,
     depth: node.depth + 1,
     segments,
-    count: side.count,
+    count,
     gradient: side.gradient,
     hessian: side.hessian,
     hist: null,
   });
-  return [child(2 * node.id + 1, left, choice.left), child(2 * node.id + 2, right, choice.right)];
+  return [
+    child(2 * node.id + 1, left, leftCount, choice.left),
+    child(2 * node.id + 2, right, node.count - leftCount, choice.right),
+  ];
 }

@@ -41,6 +41,51 @@ export function partitionRows(
   gradScratch: Float64Array,
   wordScratch: Uint32Array,
 ): number {
+  const left = splitSegment(
+    placed,
+    words,
+    stride,
+    rows,
+    ordered,
+    start,
+    end,
+    column,
+    goesRight,
+    tableBase,
+    rowScratch,
+    gradScratch,
+    wordScratch,
+  );
+  const right = end - left;
+  const w = stride >> 2;
+  rows.set(rowScratch.subarray(0, right), left);
+  ordered.set(gradScratch.subarray(0, 2 * right), 2 * left);
+  words.set(wordScratch.subarray(0, w * right), w * left);
+  return left - start;
+}
+
+/**
+ * The loop of partitionRows; returns the end of the left rows. A function of its
+ * own with nothing after the loop: V8 compiles a long first call in the middle of
+ * its loop, before the code after the loop has run, and the copies that used to
+ * follow the loop here then threw that code away again on every call (dozens of
+ * deoptimizations per fit, seen with --trace-deopt).
+ */
+function splitSegment(
+  placed: Uint8Array,
+  words: Uint32Array,
+  stride: number,
+  rows: Uint32Array,
+  ordered: Float64Array,
+  start: number,
+  end: number,
+  column: number,
+  goesRight: Uint8Array,
+  tableBase: number,
+  rowScratch: Uint32Array,
+  gradScratch: Float64Array,
+  wordScratch: Uint32Array,
+): number {
   const w = stride >> 2;
   let left = start;
   let right = 0;
@@ -87,8 +132,5 @@ export function partitionRows(
       right += toRight;
     }
   }
-  rows.set(rowScratch.subarray(0, right), left);
-  ordered.set(gradScratch.subarray(0, 2 * right), 2 * left);
-  words.set(wordScratch.subarray(0, w * right), w * left);
-  return left - start;
+  return left;
 }

@@ -11,130 +11,204 @@ import { TreeTaskOp } from "./tree-task-op.js";
  * thread, so the arithmetic is the same code either way. `scratch` is the
  * calling thread's own buffers for partitions (see createTaskScratch).
  *
+ * Without `claim` the thread runs every record in order. With it, threads share
+ * the round: each takes the next record of claim.order (record offsets into
+ * `ints`) by an atomic increment of claim.next[0] until none is left, so a thread
+ * that the machine slows down simply takes fewer records. Records write disjoint
+ * memory, so who runs which never changes a bit of the result.
+ *
  * @example
- * runTreeTasks(buffers, TreeTaskOp.gradients, Int32Array.of(3, 1000, 0, 1000, 0), null, createTaskScratch(buffers));
+ * runTreeTasks(buffers, TreeTaskOp.gradients, Int32Array.of(5, 1000, 0, 1000, 0, -1, -1), createTaskScratch(buffers));
  */
 export function runTreeTasks(
   b: TrainingBuffers,
   op: number,
   ints: Int32Array,
   scratch: TaskScratch,
+  claim: TaskClaim | null = null,
 ): void {
-  for (let at = 0; at < ints.length;) {
-    const size = ints[at];
-    const f = at + 2;
-    at = f + size;
-    switch (op) {
-      case TreeTaskOp.gradients: {
-        const slot = 4 * ints[f + 2];
-        b.sums.fill(0, slot, slot + 4);
+  if (claim === null) {
+    for (let at = 0; at < ints.length; at += 2 + ints[at]) runTreeTask(b, op, ints, at, scratch);
+    return;
+  }
+  const { next, order } = claim;
+  for (let k = Atomics.add(next, 0, 1); k < order.length; k = Atomics.add(next, 0, 1)) {
+    runTreeTask(b, op, ints, order[k], scratch);
+  }
+}
+
+/** Rows per piece of a gradient record: its pairs and bins are still in cache for the histogram. */
+const GRADIENT_PIECE_ROWS = 4096;
+
+/** Records shared by the threads of one round (see runTreeTasks). */
+export interface TaskClaim {
+  /** A shared counter: the index in `order` of the next record to take. */
+  readonly next: Int32Array;
+  /** Offsets of the round's records in `ints`, the costliest first. */
+  readonly order: Int32Array;
+}
+
+/** Runs the record that starts at offset `start` of `ints` (it ends before `at`). */
+function runTreeTask(
+  b: TrainingBuffers,
+  op: number,
+  ints: Int32Array,
+  start: number,
+  scratch: TaskScratch,
+): void {
+  const size = ints[start];
+  const f = start + 2;
+  const at = f + size;
+  switch (op) {
+    case TreeTaskOp.gradients: {
+      // [start, end, sumsSlot, position, histSlot]
+      const slot = 4 * ints[f + 2];
+      b.sums.fill(0, slot, slot + 4);
+      const position = ints[f + 3];
+      if (position < 0) {
         logLossGradients(
           b.score,
           b.label,
           b.weight,
           b.validation,
-          ints[f + 3] < 0 ? b.gradHess : b.ordered,
-          ints[f + 3],
+          b.gradHess,
+          -1,
           ints[f],
           ints[f + 1],
           b.sums,
           slot,
         );
-        if (ints[f + 3] >= 0)
-          packTrainingRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 3]);
         break;
       }
-      case TreeTaskOp.partition: {
-        // [histSlot, smallerSide, column, node, countSlot, start0, end0, ...]
-        const slot = ints[f];
-        const right = ints[f + 1];
-        const hist =
-          slot < 0 ? null : b.blockHist.subarray(b.histSize * slot, b.histSize * (slot + 1));
-        if (hist !== null) hist.fill(0);
-        let countSlot = ints[f + 4];
-        for (let s = f + 5; s < at; s += 2) {
-          const start = ints[s];
-          const end = ints[s + 1];
-          const left = partitionRows(
-            b.placed,
-            b.placedWords,
-            b.placedStride,
-            b.rows,
-            b.ordered,
-            start,
-            end,
-            ints[f + 2],
-            b.goesRight,
-            256 * ints[f + 3],
-            scratch.rows,
-            scratch.gradients,
-            scratch.words,
-          );
-          b.counts[countSlot++] = left;
-          // The smaller child's block histogram while the segment is still in cache.
-          if (hist !== null) {
-            const from = right === 0 ? start : start + left;
-            const to = right === 0 ? start + left : end;
-            accumulateHistogram(b.placed, b.placedStride, b.columnCount, from, to, b.ordered, hist);
-          }
-        }
-        break;
-      }
-      case TreeTaskOp.histogram: {
-        const base = b.histSize * ints[f];
-        const hist = b.blockHist.subarray(base, base + b.histSize);
-        hist.fill(0);
-        for (let s = f + 1; s < at; s += 2) {
+      const histSlot = ints[f + 4];
+      const hist =
+        histSlot < 0
+          ? null
+          : b.blockHist.subarray(b.histSize * histSlot, b.histSize * (histSlot + 1));
+      if (hist !== null) hist.fill(0);
+      // In pieces that stay in cache: gradients, then the rows' bins, then (with a
+      // histogram slot) the next tree's root histogram over the pairs just written.
+      let packed = position;
+      for (let s = ints[f]; s < ints[f + 1]; s += GRADIENT_PIECE_ROWS) {
+        const e = Math.min(s + GRADIENT_PIECE_ROWS, ints[f + 1]);
+        const from = packed;
+        packed = logLossGradients(
+          b.score,
+          b.label,
+          b.weight,
+          b.validation,
+          b.ordered,
+          packed,
+          s,
+          e,
+          b.sums,
+          slot,
+        );
+        packTrainingRows(b, scratch.binWords, s, e, from);
+        if (hist !== null) {
           accumulateHistogram(
             b.placed,
             b.placedStride,
             b.columnCount,
-            ints[s],
-            ints[s + 1],
+            from,
+            packed,
             b.ordered,
             hist,
           );
         }
-        break;
       }
-      case TreeTaskOp.addLeaf:
-        if (size === 3) {
-          addLeafValue(b.rows, ints[f], ints[f + 1], b.score, b.nodeValue[ints[f + 2]]);
-        } else {
-          addSplitValues(
-            b.placed,
-            b.placedStride,
-            b.rows,
-            ints[f],
-            ints[f + 1],
-            ints[f + 3],
-            ints[f + 2],
-            b.goesRight,
-            b.nodeValue,
-            b.score,
-          );
+      break;
+    }
+    case TreeTaskOp.partition: {
+      // [histSlot, smallerSide, column, node, countSlot, start0, end0, ...]
+      const slot = ints[f];
+      const right = ints[f + 1];
+      const hist =
+        slot < 0 ? null : b.blockHist.subarray(b.histSize * slot, b.histSize * (slot + 1));
+      if (hist !== null) hist.fill(0);
+      let countSlot = ints[f + 4];
+      for (let s = f + 5; s < at; s += 2) {
+        const start = ints[s];
+        const end = ints[s + 1];
+        const left = partitionRows(
+          b.placed,
+          b.placedWords,
+          b.placedStride,
+          b.rows,
+          b.ordered,
+          start,
+          end,
+          ints[f + 2],
+          b.goesRight,
+          256 * ints[f + 3],
+          scratch.rows,
+          scratch.gradients,
+          scratch.words,
+        );
+        b.counts[countSlot++] = left;
+        // The smaller child's block histogram while the segment is still in cache.
+        if (hist !== null) {
+          const from = right === 0 ? start : start + left;
+          const to = right === 0 ? start + left : end;
+          accumulateHistogram(b.placed, b.placedStride, b.columnCount, from, to, b.ordered, hist);
         }
-        break;
-      case TreeTaskOp.traverse:
-        addTreeByTraversal(
-          b.bins,
+      }
+      break;
+    }
+    case TreeTaskOp.histogram: {
+      const base = b.histSize * ints[f];
+      const hist = b.blockHist.subarray(base, base + b.histSize);
+      hist.fill(0);
+      for (let s = f + 1; s < at; s += 2) {
+        accumulateHistogram(
+          b.placed,
+          b.placedStride,
           b.columnCount,
-          b.otherRows,
+          ints[s],
+          ints[s + 1],
+          b.ordered,
+          hist,
+        );
+      }
+      break;
+    }
+    case TreeTaskOp.addLeaf:
+      if (size === 3) {
+        addLeafValue(b.rows, ints[f], ints[f + 1], b.score, b.nodeValue[ints[f + 2]]);
+      } else {
+        addSplitValues(
+          b.placed,
+          b.placedStride,
+          b.rows,
           ints[f],
           ints[f + 1],
+          ints[f + 3],
           ints[f + 2],
-          b.nodeColumn,
           b.goesRight,
-          b.leafValue,
+          b.nodeValue,
           b.score,
         );
-        break;
-      case TreeTaskOp.place:
-        placeRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 2] === 1);
-        break;
-      default:
-        throw new Error(`trees: unknown task op ${op}`);
-    }
+      }
+      break;
+    case TreeTaskOp.traverse:
+      addTreeByTraversal(
+        b.bins,
+        b.columnCount,
+        b.otherRows,
+        ints[f],
+        ints[f + 1],
+        ints[f + 2],
+        b.nodeColumn,
+        b.goesRight,
+        b.leafValue,
+        b.score,
+      );
+      break;
+    case TreeTaskOp.place:
+      placeRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 2] === 1);
+      break;
+    default:
+      throw new Error(`trees: unknown task op ${op}`);
   }
 }
 

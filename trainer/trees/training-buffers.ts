@@ -1,4 +1,4 @@
-import { COLUMN_SLOTS } from "./histogram-kernel.js";
+import { COLUMN_SLOTS, SLOT_VALUES } from "./histogram-kernel.js";
 
 /**
  * The memory that the tree learner and its worker threads share. Every array is a
@@ -21,7 +21,7 @@ export interface TrainingBuffers {
   readonly placedStride: number;
   /** `placed` as 32-bit words (placedStride / 4 per row), for moving rows whole. */
   readonly placedWords: Uint32Array;
-  /** Numbers in one histogram: 3 per slot, 256 slots per column. */
+  /** Numbers in one histogram: SLOT_VALUES (gradient, hessian) per slot, 256 slots per column. */
   readonly histSize: number;
   /** Most rows in one segment (the root's segments are this long; children's are shorter). */
   readonly blockRows: number;
@@ -53,6 +53,11 @@ export interface TrainingBuffers {
   readonly nodeValue: Float64Array;
   /** Block histograms of one round, histSize numbers each. */
   readonly blockHist: Float64Array;
+  /**
+   * [k]: k > 0 when the last gradient round also summed the next tree's root
+   * histogram, as blockHist's first k blocks (see gradientRound); 0 otherwise.
+   */
+  readonly rootHistBlocks: Int32Array;
   /** Left-row counts of a partition round, one per segment. */
   readonly counts: Int32Array;
   /** Loss sums of a gradient round, 4 per row block. */
@@ -78,14 +83,14 @@ export interface TrainingBufferSizes {
  *
  * @example
  * const buffers = createTrainingBuffers(binned.bins, sizes);
- * buffers.histSize; // 768 per binned column
+ * buffers.histSize; // 512 per binned column
  */
 export function createTrainingBuffers(
   bins: Uint8Array,
   sizes: TrainingBufferSizes,
 ): TrainingBuffers {
   const n = sizes.rowCount;
-  const histSize = 3 * COLUMN_SLOTS * sizes.columnCount;
+  const histSize = SLOT_VALUES * COLUMN_SLOTS * sizes.columnCount;
   const internal = 2 ** sizes.maxDepth - 1;
   const placedStride = 4 * Math.ceil(sizes.columnCount / 4);
   const placedBuffer = new SharedArrayBuffer(Math.max(4, n * placedStride));
@@ -110,6 +115,7 @@ export function createTrainingBuffers(
     leafValue: sharedFloat64(internal + 1),
     nodeValue: sharedFloat64(2 * internal + 1),
     blockHist: sharedFloat64(sizes.histogramBlocks * histSize),
+    rootHistBlocks: new Int32Array(new SharedArrayBuffer(4)),
     counts: new Int32Array(new SharedArrayBuffer(4 * Math.max(1, sizes.segments))),
     sums: sharedFloat64(4 * sizes.lossBlocks),
   };

@@ -7,6 +7,7 @@ import {
 } from "./find-best-split.js";
 import type { GrowNode, LeafRange } from "./grow-node.js";
 import type { GrownTree } from "./grown-tree.js";
+import { SLOT_VALUES } from "./histogram-kernel.js";
 import { NodeHistograms } from "./node-histograms.js";
 import { partitionNodes } from "./partition-nodes.js";
 import type { TrainingBuffers } from "./training-buffers.js";
@@ -40,8 +41,10 @@ interface TreeArrays {
  * branches cannot go. The leaf limit is respected by splitting, within a level,
  * the nodes with the largest gains first.
  *
- * Of two siblings only the smaller gets a histogram from its rows, summed in the
- * same worker pass that partitions the parent (partitionNodes); the larger is
+ * The root's histogram comes from the gradient round when the tree has every
+ * training row (gradientRound), else from a round of its own. Of two siblings
+ * only the one with less hessian gets a histogram from its rows, summed in the
+ * same worker pass that partitions the parent (partitionNodes); the other is
  * the parent's minus it (NodeHistograms). Rows move with their bins (buffers.placed),
  * so every node's rows are contiguous memory however deep it is. A split whose two children are final
  * leaves is not partitioned at all: its rows get their leaf values straight from
@@ -108,7 +111,6 @@ export class TreeGrower {
           allowed,
           node.gradient,
           node.hessian,
-          node.count,
           settings,
         );
         if (choice !== null) candidates.push({ node, choice });
@@ -128,7 +130,10 @@ export class TreeGrower {
         const { node, choice } = split;
         this.record(tree, split);
         const depth = node.depth + 1;
-        if (more && (this.canSplit(depth, choice.left) || this.canSplit(depth, choice.right))) {
+        // Row counts are known after the partition; until then the hessians decide.
+        const left = { count: 2, hessian: choice.left.hessian };
+        const right = { count: 2, hessian: choice.right.hessian };
+        if (more && (this.canSplit(depth, left) || this.canSplit(depth, right))) {
           partitioned.push(split);
           continue;
         }
@@ -176,10 +181,14 @@ export class TreeGrower {
     let gradient = 0;
     let hessian = 0;
     if (this.layout.columnCount > 0) {
-      await this.histograms.build([root]);
+      const ready = this.buffers.rootHistBlocks[0];
+      this.buffers.rootHistBlocks[0] = 0;
+      // The gradient round sums the root histogram when the tree has every training row.
+      if (ready > 0) root.hist = this.histograms.collect(0, ready);
+      else await this.histograms.build([root]);
       // Column 0 holds every row once (value bins and the missing bin).
       const hist = root.hist as Float64Array;
-      for (let k = 0; k < 3 * (this.layout.valueBins[0] + 1); k += 3) {
+      for (let k = 0; k < SLOT_VALUES * (this.layout.valueBins[0] + 1); k += SLOT_VALUES) {
         gradient += hist[k];
         hessian += hist[k + 1];
       }

@@ -4,12 +4,13 @@
  * disjoint memory, so any split of a round across workers leaves the same bits.
  *
  * A round's Int32Array holds records back to back, each as
- * [fieldCount, cost, ...fields]; cost (rows) only guides the spread over workers.
+ * [fieldCount, cost, ...fields]; cost (rows) only sets the order in which workers take them.
  * The op's fields:
- * - gradients: [start, end, sumsSlot, position]: gradients, hessians and loss sums of rows
- *   start .. end - 1; position -1 writes them by row into gradHess, position >= 0 packs the
+ * - gradients: [start, end, sumsSlot, position, histSlot]: gradients, hessians and loss sums of
+ *   rows start .. end - 1; position -1 writes them by row into gradHess, position >= 0 packs the
  *   training rows' pairs into `ordered` from that position (see logLossGradients), and the
- *   rows themselves and their bins into `rows` and `placed`: the next tree's root.
+ *   rows themselves and their bins into `rows` and `placed`: the next tree's root; with
+ *   histSlot >= 0 also the histogram of those packed rows, from zero, into that block histogram.
  * - partition: [histSlot, smallerSide, column, node, countSlot, start0, end0, start1, end1, ...]:
  *   split each segment of one node in place (rows, ordered gradients and placed bins; left
  *   counts to counts[countSlot], counts[countSlot + 1], ...) and, with histSlot >= 0, sum the
@@ -35,8 +36,8 @@ export const TreeTaskOp = {
  *
  * @example
  * const list = new TaskList();
- * list.add(1000, 0, 1000, 0); // a gradients record of rows 0 .. 999 into sums slot 0
- * list.ints(); // Int32Array [3, 1000, 0, 1000, 0]
+ * list.add(1000, 0, 1000, 0, -1, -1); // a gradients record of rows 0 .. 999 into sums slot 0
+ * list.ints(); // Int32Array [5, 1000, 0, 1000, 0, -1, -1]
  */
 export class TaskList {
   private readonly fields: number[] = [];

@@ -13,10 +13,13 @@ interface PendingRound {
 
 /**
  * Runs rounds of tree tasks on worker threads over shared memory, or on the main
- * thread when one worker is asked for. A round's records are spread over the
- * workers by row count; since records write disjoint memory, the result does
- * not depend on the spread. Always `close()` the pool (workers keep a process
- * alive); a worker that throws rejects the round with a LeafcastError.
+ * thread when one worker is asked for. Every worker gets the whole round and
+ * takes its records one at a time, costliest first, from a shared counter (see
+ * runTreeTasks): on a machine shared with other work a fixed spread left one
+ * worker idle for a third of the time in a profile here, waiting for the other.
+ * Records write disjoint memory, so the result does not depend on who ran what.
+ * Always `close()` the pool (workers keep a process alive); a worker that throws
+ * rejects the round with a LeafcastError.
  *
  * @example
  * const pool = new TreeTaskPool(buffers, 2);
@@ -31,6 +34,8 @@ export class TreeTaskPool {
   private readonly buffers: TrainingBuffers;
   private readonly scratch: TaskScratch | null;
   private readonly workers: Worker[] = [];
+  /** The shared record counter of the current round. */
+  private readonly next = new Int32Array(new SharedArrayBuffer(4));
   private pending: PendingRound | null = null;
   private broken: LeafcastError | null = null;
   private closing = false;
@@ -48,7 +53,7 @@ export class TreeTaskPool {
       worker.on("exit", (code: number) => {
         if (!this.closing) this.fail(i, `exited unexpectedly with code ${code}`);
       });
-      const init: PoolRequest = { type: "init", buffers };
+      const init: PoolRequest = { type: "init", buffers, next: this.next };
       worker.postMessage(init);
       this.workers.push(worker);
     }
@@ -66,17 +71,16 @@ export class TreeTaskPool {
         return Promise.reject(error);
       }
     }
-    const parts = spreadRecords(ints, this.workerCount);
+    const order = recordOrder(ints);
+    const helpers = Math.min(this.workerCount, order.length);
     const round = ++this.round;
+    this.next[0] = 0; // every worker has answered the previous round
     return new Promise<void>((resolve, reject) => {
-      const pending: PendingRound = { round, waiting: 0, resolve, reject };
-      this.pending = pending;
-      parts.forEach((part, i) => {
-        if (part.length === 0) return;
-        pending.waiting++;
-        const request: PoolRequest = { type: "run", round, op, ints: part };
+      this.pending = { round, waiting: helpers, resolve, reject };
+      for (let i = 0; i < helpers; i++) {
+        const request: PoolRequest = { type: "run", round, op, ints, order };
         this.workers[i].postMessage(request);
-      });
+      }
     });
   }
 
@@ -132,29 +136,10 @@ function startTreeWorker(): Worker {
   return new Worker(new URL("./histogram-worker.js", here));
 }
 
-/** Splits records over `parts` workers, largest first onto the least-loaded one. */
-function spreadRecords(ints: Int32Array, parts: number): Int32Array[] {
+/** Offsets of the records of `ints`, costliest first (ties in record order). */
+function recordOrder(ints: Int32Array): Int32Array {
   const starts: number[] = [];
   for (let at = 0; at < ints.length; at += 2 + ints[at]) starts.push(at);
-  const cost = (k: number): number => ints[starts[k] + 1];
-  const order = starts.map((_, k) => k).sort((a, b) => cost(b) - cost(a) || a - b);
-  const load = new Float64Array(parts);
-  const owner = new Int32Array(starts.length);
-  const length = new Int32Array(parts);
-  for (const k of order) {
-    let best = 0;
-    for (let w = 1; w < parts; w++) if (load[w] < load[best]) best = w;
-    owner[k] = best;
-    load[best] += cost(k) + 64; // a record's fixed overhead, in rows
-    length[best] += 2 + ints[starts[k]];
-  }
-  const out = Array.from({ length: parts }, (_, w) => new Int32Array(length[w]));
-  const filled = new Int32Array(parts);
-  starts.forEach((at, k) => {
-    const w = owner[k];
-    const size = 2 + ints[at];
-    out[w].set(ints.subarray(at, at + size), filled[w]);
-    filled[w] += size;
-  });
-  return out;
+  starts.sort((a, b) => ints[b + 1] - ints[a + 1] || a - b);
+  return Int32Array.from(starts);
 }
