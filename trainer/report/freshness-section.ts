@@ -35,8 +35,8 @@ function recoveryTable(recovery: readonly FreshnessRecovery[]): string {
       formatFigure(r.headsUpdatedNe, "metric"),
       formatFigure(r.treesRefitNe, "metric"),
       shares === null ? "none" : formatFigure(shares.lost, "metric"),
-      shares === null ? "n/a" : formatFigure(shares.recovered, "percent"),
-      shares === null ? "n/a" : formatFigure(shares.leftToTrees, "percent"),
+      shares === null ? "n/a" : shareText(shares.recovered),
+      shares === null ? "n/a" : shareText(shares.leftToTrees),
     ];
     return `<tr><th scope="row">${escapeHtml(r.outcome)}</th>${cells.map((c) => `<td>${c}</td>`).join("")}</tr>`;
   });
@@ -47,4 +47,11 @@ function recoveryTable(recovery: readonly FreshnessRecovery[]): string {
     `<th scope="col">recovered by head updates</th><th scope="col">left to the trees</th></tr></thead>` +
     `<tbody>${rows.join("")}</tbody></table></div>\n`
   );
+}
+
+/** A share as a percentage, clipped at the ends: past them the arms crossed (see recoverySentence). */
+function shareText(share: number): string {
+  if (share > 1) return "over 100 %";
+  if (share < 0) return "below 0 %";
+  return formatFigure(share, "percent");
 }

@@ -4,7 +4,8 @@ import { FRESHNESS_ARM_LABELS, type FreshnessReport } from "./report-input.js";
 import { windowAxis } from "./window-axis.js";
 
 const ARM_ORDER = Object.values(FRESHNESS_ARM_LABELS);
-const PANEL_WIDTH = 190;
+// Four panels a row (two outcomes x NE and calibration) fit a 1,100-pixel window.
+const PANEL_WIDTH = 170;
 
 /**
  * The freshness study in one chart: per outcome (in order of first appearance) a panel of

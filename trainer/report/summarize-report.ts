@@ -1,6 +1,7 @@
 import { psiReading } from "../metrics/psi-reading.js";
 import { formatFigure } from "./format-figure.js";
 import { recoveryShares } from "./recovery-shares.js";
+import { recoverySentence } from "./recovery-sentence.js";
 import type { ReportInput, StalenessReport } from "./report-input.js";
 import { terminalText } from "./terminal-text.js";
 
@@ -47,8 +48,7 @@ export function summarizeReport(input: ReportInput): string {
       lines.push(
         shares === null
           ? `  ${t(r.outcome)}: no NE lost to drift`
-          : `  ${t(r.outcome)}: head updates recover ${formatFigure(shares.recovered, "percent")}, ` +
-              `${formatFigure(shares.leftToTrees, "percent")} is left to the trees (NE lost ${formatFigure(shares.lost, "metric")})`,
+          : `  ${t(r.outcome)}: ${recoverySentence(shares)}`,
       );
     }
   }
