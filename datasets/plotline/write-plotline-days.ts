@@ -8,6 +8,7 @@ import type {
 import { writeDataFile } from "../../trainer/data/write-data-file.js";
 import type { PlotlineChunk } from "./generate-plotline.js";
 import { plotlineChunksAhead } from "./plotline-chunks-ahead.js";
+import { WORKER_TEXT_CHUNK_ROWS } from "./write-plotline.js";
 import { plotlineColumns } from "./plotline-columns.js";
 import { resolvePlotlineOptions, type PlotlineOptions } from "./plotline-options.js";
 
@@ -36,7 +37,12 @@ export async function writePlotlineDays(
 ): Promise<WriteSummary[]> {
   const resolved = resolvePlotlineOptions(options);
   const columns = plotlineColumns(resolved);
-  const chunks = plotlineChunksAhead(options);
+  // Days split chunks by time, so the chunk size changes no file; text formats take smaller ones.
+  const text = format === "csv" || format === "ndjson";
+  const chunkRows = text
+    ? Math.min(WORKER_TEXT_CHUNK_ROWS, resolved.chunkRows)
+    : resolved.chunkRows;
+  const chunks = plotlineChunksAhead({ ...options, chunkRows });
   let pending: PlotlineChunk | null = null;
   const summaries: WriteSummary[] = [];
   try {
