@@ -1,4 +1,5 @@
 import type { CompiledHeads } from "./compile-heads.js";
+import { clipStandardized } from "./clip-standardized.js";
 import type { InputPlan } from "./compile-inputs.js";
 
 /**
@@ -27,7 +28,7 @@ export function addNumericWeights(
     for (let j = 0; j < feature.length; j++) {
       const x = block[i * stride + feature[j]];
       if (!Number.isFinite(x)) continue;
-      const v = (x - mean[j]) / std[j];
+      const v = clipStandardized(x, mean[j], std[j]);
       const g = j * lanes;
       for (let h = 0; h < headCount; h++) z[zo + h] += weight[g + h] * v;
     }

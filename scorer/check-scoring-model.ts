@@ -3,6 +3,7 @@ import { checkTableSize } from "./check-table-size.js";
 import { encodedLayout } from "./encoded-layout.js";
 import type { HeadModel, ScoringModel } from "./model-types.js";
 import type { ScorerIssue } from "./scorer-error.js";
+import { STANDARDIZED_LIMIT } from "./clip-standardized.js";
 
 const MAX_ISSUES = 50;
 
@@ -112,7 +113,16 @@ export function checkScoringModel(model: ScoringModel): ScorerIssue[] {
     model.forests.every(
       (forest) => Number.isInteger(forest.depth) && forest.depth >= 1 && forest.depth <= 16,
     );
-  const width = layoutOk ? encodedLayout(model.forests, encoding).width : Infinity;
+  const layout = layoutOk ? encodedLayout(model.forests, encoding) : null;
+  const width = layout === null ? Infinity : layout.width;
+  // How often a weight can enter one logit: a hashed bucket once per hashed
+  // feature and cross (two can share a bucket), a numeric weight times an input
+  // clipped to STANDARDIZED_LIMIT.
+  const reach: WeightReach = {
+    hashedOffset: layout === null ? Infinity : layout.hashedOffset,
+    numericOffset: layout === null ? Infinity : layout.numericOffset,
+    hashedTimes: Math.max(1, encoding.hashed.length + encoding.crosses.length),
+  };
   // Each forest alone was measured by checkForestModel; here all of them with the heads' leaf table.
   if (layoutOk && !issues.some((issue) => issue.code === "too_large")) {
     for (const issue of checkTableSize(model.forests, contract, model.heads.length))
@@ -123,7 +133,7 @@ export function checkScoringModel(model: ScoringModel): ScorerIssue[] {
     if (headOutcomes.has(head.outcome))
       add("duplicate", `/heads/${h}/outcome`, `outcome "${head.outcome}" has two heads`);
     headOutcomes.add(head.outcome);
-    checkHead(head, h, width, add);
+    checkHead(head, h, width, reach, add);
   });
   if (model.valueWeights.length !== model.heads.length) {
     add(
@@ -151,7 +161,14 @@ export function checkScoringModel(model: ScoringModel): ScorerIssue[] {
 
 type Add = (code: string, path: string, message: string) => void;
 
-function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
+/** Where the encoded regions start, and how often a hashed weight can count. */
+interface WeightReach {
+  readonly hashedOffset: number;
+  readonly numericOffset: number;
+  readonly hashedTimes: number;
+}
+
+function checkHead(head: HeadModel, h: number, width: number, reach: WeightReach, add: Add): void {
   const base = `/heads/${h}`;
   if (!Number.isFinite(head.bias))
     add("not_finite", `${base}/bias`, `expected a finite number, found ${head.bias}`);
@@ -167,7 +184,7 @@ function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
     return;
   }
   let previous = -1;
-  // A logit adds the bias and some of the weights: their absolute sum bounds it.
+  // A logit adds the bias and some of the weights, each at most `times` over: this sum bounds it.
   let sum = Math.abs(head.bias);
   let allFinite = Number.isFinite(head.bias);
   for (let i = 0; i < head.index.length; i++) {
@@ -189,7 +206,13 @@ function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
       return;
     }
     previous = index;
-    sum += Math.abs(head.weight[i]);
+    const times =
+      index >= reach.numericOffset
+        ? STANDARDIZED_LIMIT
+        : index >= reach.hashedOffset
+          ? reach.hashedTimes
+          : 1;
+    sum += Math.abs(head.weight[i]) * times;
     if (!Number.isFinite(head.weight[i])) {
       allFinite = false;
       add("not_finite", `${base}/weight/${i}`, `expected a finite number, found ${head.weight[i]}`);
@@ -199,7 +222,7 @@ function checkHead(head: HeadModel, h: number, width: number, add: Add): void {
     add(
       "overflow",
       `${base}/weight`,
-      "expected a bias and weights whose absolute sum is a finite double, found one that overflows",
+      "expected a bias and weights whose logit cannot overflow (absolute sum, hashed weights once per hashed feature, numeric weights times the clipped input), found one that can",
     );
   }
 }

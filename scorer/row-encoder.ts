@@ -12,6 +12,7 @@ import type { EncodedBatch, ScoringModel } from "./model-types.js";
 import type { ScoreItem } from "./score-item.js";
 import { VirtualSlots } from "./virtual-slots.js";
 import { ScorerError } from "./scorer-error.js";
+import { clipStandardized } from "./clip-standardized.js";
 
 /** Output space for encode: offsets of at least rowCount + 1 entries, index and value of at least rowCount * maxEntriesPerRow. */
 export interface EncodedBuffers {
@@ -210,7 +211,7 @@ export class RowEncoder {
         const x = block[i * plan.stride + standardized[j]];
         if (!Number.isFinite(x) || value === null) continue;
         index[p] = plan.numericOffset + j;
-        value[p] = (x - plan.mean[j]) / plan.std[j];
+        value[p] = clipStandardized(x, plan.mean[j], plan.std[j]);
         p++;
       }
     }

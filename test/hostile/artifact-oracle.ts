@@ -127,7 +127,9 @@ function runsOf(
  * states (array lengths from tree count and depth, feature and category indexes
  * in range, head indexes strictly ascending inside the encoded width, names
  * unique and resolvable). Plus one rule of the loader's own, stated in
- * scorer/check-model-size.ts: no sum the scorer forms may overflow a double.
+ * scorer/check-scoring-model.ts: no sum the scorer forms may overflow a double,
+ * counting a hashed weight once per hashed column and cross and a numeric weight
+ * times its largest (clipped) input.
  */
 export function artifactProblem(document: unknown): string | null {
   if (!validShape(document)) return `schema: ${JSON.stringify(validShape.errors?.[0] ?? null)}`;
@@ -170,7 +172,18 @@ export function artifactProblem(document: unknown): string | null {
     if (!Number.isFinite(sum)) return "forest values overflow";
     width += T * (nodes + 1);
   }
-  width += 2 ** contract.hashing.bits + contract.standardized.length;
+  const hashedOffset = width;
+  width += 2 ** contract.hashing.bits;
+  const numericOffset = width;
+  width += contract.standardized.length;
+  // A hashed bucket can enter a logit once per hashed column and cross; a numeric
+  // weight times its input, which the scorer clips at 1e6 standard deviations.
+  const hashedTimes = Math.max(
+    1,
+    contract.hashing.columns.length + contract.hashing.crosses.length,
+  );
+  const times = (index: number): number =>
+    index >= numericOffset ? 1e6 : index >= hashedOffset ? hashedTimes : 1;
   const outcomes = (list: { outcome: string }[]): boolean =>
     new Set(list.map((x) => x.outcome)).size === list.length;
   if (!outcomes(doc.forests) || !outcomes(doc.heads)) return "outcomes not unique";
@@ -183,7 +196,12 @@ export function artifactProblem(document: unknown): string | null {
       index = i === 0 ? head.indexDelta[0] : index + head.indexDelta[i];
       if (index >= width) return "head index past the encoded width";
     }
-    const sum = head.weight.reduce((s, w) => s + Math.abs(w), Math.abs(head.bias));
+    let sum = Math.abs(head.bias);
+    let at = -1;
+    for (let i = 0; i < head.weight.length; i++) {
+      at = i === 0 ? head.indexDelta[0] : at + head.indexDelta[i];
+      sum += Math.abs(head.weight[i]) * times(at);
+    }
     if (!Number.isFinite(sum)) return "head weights overflow";
     combined += Math.abs(head.valueWeight);
   }
