@@ -18,12 +18,14 @@
  *   --keep      keep the log and outputs (otherwise removed at the end)
  */
 import { spawnSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { writePlotline } from "../datasets/plotline/write-plotline.js";
 import { saveHeadState } from "../trainer/heads/save-head-state.js";
+import { removeFileIfPresent } from "../trainer/io/remove-file-if-present.js";
+import { writeFileAtomic } from "../trainer/io/write-file-atomic.js";
 import { plotlineSchemaPath } from "../trainer/package-root.js";
 import { learnHeadsFromFiles } from "../trainer/pipeline/learn-heads-from-files.js";
 import { loadDatasetSchema } from "../trainer/schema/load-dataset-schema.js";
@@ -84,7 +86,7 @@ async function runPhase(phase: string): Promise<PhaseFigures> {
   if (phase === "generate") {
     const written = await writePlotline(dataPath, "csv", { seed, rows });
     done = written.rows;
-    writeFileSync(metaPath, JSON.stringify({ rows, seed, bytes: written.bytes }));
+    await writeFileAtomic(metaPath, JSON.stringify({ rows, seed, bytes: written.bytes }));
     detail = `${(written.bytes / 1e9).toFixed(2)} GB`;
   } else if (phase === "fit") {
     const fitted = await fitTreesFromFile(dataPath, schema, config);
@@ -95,13 +97,16 @@ async function runPhase(phase: string): Promise<PhaseFigures> {
   } else if (phase === "heads") {
     const forests = await readForestFile(forestsPath);
     let checkpoints = 0;
+    // A fresh run every time: a checkpoint left by an earlier run must not shorten this one.
     const learned = await learnHeadsFromFiles([dataPath], schema, config, forests, {
       checkpointPath: `${headsPath}.checkpoint`,
+      restart: true,
       onCheckpoint: () => {
         checkpoints++;
       },
     });
     await saveHeadState(headsPath, learned.state);
+    await removeFileIfPresent(`${headsPath}.checkpoint`);
     done = learned.state.rowCount;
     detail = `${learned.report.length} heads, ${config.workers} workers, ${checkpoints} checkpoints`;
   } else {
@@ -182,7 +187,8 @@ if (phaseAt >= 0) {
   );
   const bytes = statSync(dataPath).size;
   if (!keep) {
-    for (const path of [dataPath, metaPath, forestsPath, headsPath]) rmSync(path, { force: true });
+    for (const path of [dataPath, metaPath, forestsPath, headsPath, `${headsPath}.checkpoint`])
+      rmSync(path, { force: true });
     if (madeDir) rmSync(dir, { recursive: true, force: true });
   }
   const figures = (m: PhaseFigures | null): Record<string, number> | null =>

@@ -48,11 +48,12 @@ export async function* plotlineChunksAhead(
     yield* generatePlotline(options, false);
     return;
   }
-  const workers = Array.from(
-    { length: threads },
-    (_, index) => new ChunkWorker({ options, share: { index, of: threads } }, ahead),
-  );
+  const workers: ChunkWorker[] = [];
   try {
+    // Started inside the try, so that one failing to start stops the others.
+    for (let index = 0; index < threads; index++) {
+      workers.push(new ChunkWorker({ options, share: { index, of: threads } }, ahead));
+    }
     for (let c = 0; ; c++) {
       const chunk = await workers[c % threads].next();
       if (chunk === null) return;

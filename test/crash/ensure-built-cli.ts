@@ -27,10 +27,14 @@ export async function ensureBuiltCli(): Promise<void> {
   }
   try {
     if (isFresh()) return;
-    // tsc still writes every file when another file has a type error; the check below decides.
-    spawnSync(process.execPath, ["node_modules/typescript/bin/tsc", "-p", "tsconfig.build.json"], {
-      stdio: "ignore",
-    });
+    const built = spawnSync(
+      process.execPath,
+      ["node_modules/typescript/bin/tsc", "-p", "tsconfig.build.json"],
+      { encoding: "utf8" },
+    );
+    if (built.status !== 0) {
+      throw new Error(`building the CLI failed (tsc exit ${built.status}): ${built.stdout}`);
+    }
     if (!existsSync(BUILT_CLI)) throw new Error(`expected ${BUILT_CLI} after building, found none`);
   } finally {
     rmSync(LOCK, { recursive: true, force: true });

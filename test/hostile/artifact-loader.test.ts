@@ -44,13 +44,6 @@ afterEach(() => expect(prototypesPolluted()).toBeNull());
 /** Generated cases per property (the closing note of issue 7 quotes them). */
 const RUNS = { random: 2000, damagedText: 2000, resealed: 2000, mixed: 150, sameMeaning: 300 };
 
-/**
- * A hang guard, not a speed check: one load of these small documents takes
- * about a millisecond; a loader that loops or backtracks on a hostile value
- * would take far longer than this even on a loaded machine.
- */
-const HANG_MS = 10_000;
-
 const small = fuzzArtifacts.small as unknown as Json;
 const smallText = artifactText(fuzzArtifacts.small);
 const words = [
@@ -59,9 +52,11 @@ const words = [
   "open",
 ];
 
-/** Loads, returning the scorer or the ScorerError; any other exception fails the test. */
+/**
+ * Loads, returning the scorer or the ScorerError; any other exception fails the
+ * test. A load that hangs fails the test by vitest's timeout (nothing here is timed).
+ */
 function load(input: unknown): Scorer | ScorerError {
-  const started = performance.now();
   try {
     return loadScorer(input);
   } catch (error) {
@@ -69,8 +64,6 @@ function load(input: unknown): Scorer | ScorerError {
     expect(error.issues.length).toBeGreaterThan(0);
     expect(error.source).toBe("artifact");
     return error;
-  } finally {
-    expect(performance.now() - started).toBeLessThan(HANG_MS);
   }
 }
 

@@ -6,6 +6,9 @@ import { runCli } from "../../trainer/cli/main.js";
 import { loadDatasetSchema } from "../../trainer/schema/load-dataset-schema.js";
 import { NOISE_FEATURES, pruningSchemaDocument, writePruningFixture } from "./pruning-fixture.js";
 
+// Invented ground truth: Plotline rows plus invented uniform-noise columns
+// (pruning-fixture.ts); the noise columns carry no signal by construction.
+
 let dir = "";
 let path = "";
 

@@ -2,6 +2,9 @@ import { describe, expect, it } from "vitest";
 import { LeafcastError } from "../../trainer/errors.js";
 import { planStudyWindows } from "../../trainer/study/plan-study-windows.js";
 
+// Hand-made cases: the expected windows are worked out by hand from the rule the
+// function states (consecutive day files per window, fit days first); no outside source.
+
 const days = Array.from({ length: 10 }, (_, i) => `day-${i + 1}.csv`);
 
 describe("planStudyWindows", () => {

@@ -5,6 +5,9 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { writePlotlineDays } from "../../datasets/plotline/write-plotline-days.js";
 import { runCli } from "../../trainer/cli/main.js";
 
+// Invented ground truth: a small Plotline run (the project's own generator) through
+// the real command; the checks are on what the command must write and print.
+
 const dir = mkdtempSync(join(tmpdir(), "leafcast-report-"));
 const dataDir = join(dir, "data");
 const configPath = join(dir, "config.json");

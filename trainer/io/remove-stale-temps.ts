@@ -6,7 +6,9 @@ import { basename, dirname, join } from "node:path";
  * that processes which no longer run left behind, e.g. when killed mid-write.
  * Temporary files of this process and of live processes are left alone: they
  * may be writes in progress. Never throws: cleaning up is a courtesy, not part
- * of the write.
+ * of the write. Process ids are those of this host: on a folder that several
+ * machines write (a network file system), another host's write in progress can
+ * look stale; its rename then fails with a clear error, and no file is damaged.
  *
  * @example
  * await removeStaleTemps("runs/demo/forests.json"); // 2 when two killed runs left one each

@@ -1,3 +1,4 @@
+import { resolve } from "node:path";
 import { loadHeadState } from "../heads/load-head-state.js";
 import { removeFileIfPresent } from "../io/remove-file-if-present.js";
 import { saveHeadState } from "../heads/save-head-state.js";
@@ -64,10 +65,14 @@ export async function runHeadCommand(
     badRows: options.skipBadRows === true ? "skip" : "fail",
     rejectsPath: options.rejects,
   });
-  // The checkpoint goes first: --out may be the --heads file it was made from, and
-  // a kill between the two steps then means learning again, never resuming twice.
-  await removeFileIfPresent(checkpointPath);
+  // Saving first keeps the progress if the final write fails (a kill between the
+  // two steps resumes and writes the same bytes again). Only when --out is the
+  // --heads file the checkpoint was made from does the checkpoint go first: a
+  // resume would then start from the new heads and learn the rows twice.
+  const inPlace = options.heads !== undefined && resolve(options.heads) === resolve(options.out);
+  if (inPlace) await removeFileIfPresent(checkpointPath);
   await saveHeadState(options.out, result.state);
+  if (!inPlace) await removeFileIfPresent(checkpointPath);
   const summary = headReportSummary(result.report);
   const rowsRejected = result.reads.reduce((sum, r) => sum + r.rowsRejected, 0);
   const rowsLearned = result.state.rowCount - before;

@@ -253,12 +253,12 @@ export const trainingConfigDocument = {
         "everyTrees": {
           "type": "integer",
           "minimum": 1,
-          "description": "Save fitting state every this many trees. Default 10."
+          "description": "While fitting trees, save a checkpoint (<out>.checkpoint: the trees so far) every this many trees; a rerun resumes from it. Default 10."
         },
         "everyRows": {
           "type": "integer",
           "minimum": 1,
-          "description": "Save head state every this many rows. Default 1000000."
+          "description": "While learning or updating heads, save a checkpoint (<out>.checkpoint: the head state and the position in the input files) every this many rows; a rerun resumes from it. Default 1000000."
         }
       }
     }
@@ -430,11 +430,11 @@ export interface Heads {
  */
 export interface Checkpoint {
   /**
-   * Save fitting state every this many trees. Default 10.
+   * While fitting trees, save a checkpoint (<out>.checkpoint: the trees so far) every this many trees; a rerun resumes from it. Default 10.
    */
   everyTrees?: number;
   /**
-   * Save head state every this many rows. Default 1000000.
+   * While learning or updating heads, save a checkpoint (<out>.checkpoint: the head state and the position in the input files) every this many rows; a rerun resumes from it. Default 1000000.
    */
   everyRows?: number;
 }

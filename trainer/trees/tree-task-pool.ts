@@ -74,7 +74,7 @@ export class TreeTaskPool {
     const order = recordOrder(ints);
     const helpers = Math.min(this.workerCount, order.length);
     const round = ++this.round;
-    this.next[0] = 0; // every worker has answered the previous round
+    Atomics.store(this.next, 0, 0); // every worker has answered the previous round
     return new Promise<void>((resolve, reject) => {
       this.pending = { round, waiting: helpers, resolve, reject };
       for (let i = 0; i < helpers; i++) {
