@@ -23,6 +23,7 @@ import { hybridScorer } from "./hybrid-scorer.js";
 import { planStudyWindows, type StudyPlanOptions, type StudyWindow } from "./plan-study-windows.js";
 import { scoreWindow, type WindowTarget } from "./score-window.js";
 import { spanLabel } from "./span-label.js";
+import { segmentGapFindings } from "./segment-gap-findings.js";
 import { studyFindings } from "./study-findings.js";
 import { studyHeadReports, type StudyBaseline } from "./study-head-reports.js";
 import { treesOnlyScorer } from "./trees-only-scorer.js";
@@ -231,7 +232,20 @@ export async function runFreshnessStudy(
       forest: f.forest.outcome,
       features: f.importance,
     })),
-    findings: studyFindings({ recovery, recoverySpan, staleness }),
+    findings: studyFindings({
+      recovery,
+      recoverySpan,
+      staleness,
+      segmentGaps:
+        segmentColumn === null
+          ? []
+          : segmentGapFindings({
+              segmentFigures,
+              segmentColumn,
+              windows: recoveryWindows,
+              span: recoverySpan,
+            }),
+    }),
     forests: fitted.forests,
     headState: state,
     rowsScored,

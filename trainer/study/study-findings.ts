@@ -8,12 +8,15 @@ export interface StudyFindingsInput {
   /** The windows the recovery averages, as one label, e.g. "days 22-42". */
   readonly recoverySpan: string;
   readonly staleness: StalenessReport;
+  /** With a segment column: where refitting beats the updated heads on one segment (segmentGapFindings). */
+  readonly segmentGaps?: readonly string[];
 }
 
 /**
  * The study's findings as plain sentences: per outcome how much of the NE lost to
- * drift head updates recover and how much is left to the trees, then when the
- * trees' leaf PSI first reached the refit threshold (or that it never did).
+ * drift head updates recover and how much is left to the trees, then the segments
+ * where only refitting closes a gap, then when the trees' leaf PSI first reached
+ * the refit threshold (or that it never did).
  *
  * @example
  * studyFindings({ recovery, recoverySpan: "days 22-42", staleness });
@@ -45,6 +48,7 @@ export function studyFindings(input: StudyFindingsInput): string[] {
       );
     }
   }
+  lines.push(...(input.segmentGaps ?? []));
   const staleness = stalenessFinding(input.staleness);
   if (staleness !== null) lines.push(staleness);
   return lines;
