@@ -104,6 +104,12 @@ describe("leafcast prune-features", () => {
     );
   });
 
+  it("refuses --held-out 0 before reading any file", async () => {
+    const result = await run(["prune-features", path, "--schema", "x.json", "--held-out", "0"]);
+    expect(result.code).not.toBe(0);
+    expect(result.err).toContain('expected a share in (0, 1) such as 0.2, found "0"');
+  });
+
   it("measures trees plus heads with --with-heads and prints JSON", async () => {
     const result = await run([
       "prune-features",

@@ -23,6 +23,7 @@ import { hybridScorer } from "./hybrid-scorer.js";
 import { planStudyWindows, type StudyPlanOptions, type StudyWindow } from "./plan-study-windows.js";
 import { scoreWindow, type WindowTarget } from "./score-window.js";
 import { spanLabel } from "./span-label.js";
+import { LeafcastError } from "../errors.js";
 import { segmentGapFindings } from "./segment-gap-findings.js";
 import { studyFindings } from "./study-findings.js";
 import { studyHeadReports, type StudyBaseline } from "./study-head-reports.js";
@@ -105,6 +106,16 @@ export async function runFreshnessStudy(
 ): Promise<FreshnessStudy> {
   const plan = planStudyWindows(files, options);
   checkStudyOptions(schema, options);
+  // A drift day after the last window's start would leave nothing to average: refuse it before any work.
+  const lastWindow = plan.windows[plan.windows.length - 1];
+  if (options.driftFromDay !== undefined && options.driftFromDay > lastWindow.firstDay) {
+    throw new LeafcastError("study", [
+      {
+        code: "bad_option",
+        message: `drift day expected at most ${lastWindow.firstDay} (the first day of the last scored window), found ${options.driftFromDay}`,
+      },
+    ]);
+  }
   const log = options.log ?? ((): void => undefined);
   const segmentColumn = options.segmentColumn ?? null;
   const read = { badRows: options.badRows, signal: options.signal };

@@ -53,7 +53,7 @@ export function registerPruneFeaturesCommand(program: Command): void {
     .option(
       "--held-out <share>",
       "share of rows held out: the latest by time when the schema has a timestamp, else a seeded draw",
-      parseShare,
+      parseHeldOut,
       0.2,
     )
     .option("--protect <names>", "comma-separated features never to drop", parseNames, [])
@@ -158,6 +158,15 @@ function parseShare(text: string): number {
     throw new InvalidArgumentError(
       `expected a share in [0, 1) such as 0.002 or 0.2%, found "${text}"`,
     );
+  }
+  return value;
+}
+
+/** A share strictly between 0 and 1, for the held-out rows (some must be held out). */
+function parseHeldOut(text: string): number {
+  const value = parseShare(text);
+  if (value === 0) {
+    throw new InvalidArgumentError(`expected a share in (0, 1) such as 0.2, found "${text}"`);
   }
   return value;
 }
