@@ -1,32 +1,12 @@
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, describe, expect, it, vi } from "vitest";
-import { runCli } from "../../trainer/cli/main.js";
+import { afterAll, describe, expect, it } from "vitest";
 import { toolVersion } from "../../trainer/tool-version.js";
+import { runCliCaptured as run } from "./run-cli-captured.js";
 
 const dir = mkdtempSync(join(tmpdir(), "leafcast-cli-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const stdout = vi.spyOn(process.stdout, "write").mockImplementation((chunk) => {
-    out += String(chunk);
-    return true;
-  });
-  const stderr = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => {
-    err += String(chunk);
-    return true;
-  });
-  try {
-    const code = await runCli(args);
-    return { code, out, err };
-  } finally {
-    stdout.mockRestore();
-    stderr.mockRestore();
-  }
-}
 
 describe("leafcast CLI", () => {
   it("reports the version of package.json", () => {

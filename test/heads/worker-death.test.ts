@@ -1,9 +1,9 @@
 import { existsSync } from "node:fs";
 import { readFile, rm, writeFile } from "node:fs/promises";
 import { join } from "node:path";
-import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
-import { runCli } from "../../trainer/cli/main.js";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { plotlineDays } from "../pipeline/pipeline-fixtures.js";
+import { runCliCaptured as run } from "../cli/run-cli-captured.js";
 
 // What is checked (issue 7, "Workers"): a head-training worker that throws,
 // crashes or exits surfaces as a clear LeafcastError (exit code 2 and a
@@ -17,25 +17,6 @@ let dir = "";
 let paths: string[] = [];
 const schema = "datasets/plotline.schema.json";
 let straight: Buffer;
-
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const stdout = vi.spyOn(process.stdout, "write").mockImplementation((chunk) => {
-    out += String(chunk);
-    return true;
-  });
-  const stderr = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => {
-    err += String(chunk);
-    return true;
-  });
-  try {
-    return { code: await runCli(args), out, err };
-  } finally {
-    stdout.mockRestore();
-    stderr.mockRestore();
-  }
-}
 
 function learnArgs(out: string): string[] {
   const config = join(dir, "config.json");

@@ -1,10 +1,10 @@
 import { mkdir, readFile, rm, stat, writeFile } from "node:fs/promises";
 import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { runCli } from "../../trainer/cli/main.js";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadHeadState } from "../../trainer/heads/load-head-state.js";
 import { writePlotlineDays } from "../../datasets/plotline/write-plotline-days.js";
 import { plotlineDays } from "./pipeline-fixtures.js";
+import { runCliCaptured as run } from "../cli/run-cli-captured.js";
 
 // What is checked: the learn-heads and update-heads commands wire files, trees,
 // configuration and saved heads together, write the state atomically and print
@@ -12,25 +12,6 @@ import { plotlineDays } from "./pipeline-fixtures.js";
 let dir = "";
 let paths: string[] = [];
 const schemaPath = "datasets/plotline.schema.json";
-
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const stdout = vi.spyOn(process.stdout, "write").mockImplementation((chunk) => {
-    out += String(chunk);
-    return true;
-  });
-  const stderr = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => {
-    err += String(chunk);
-    return true;
-  });
-  try {
-    return { code: await runCli(args), out, err };
-  } finally {
-    stdout.mockRestore();
-    stderr.mockRestore();
-  }
-}
 
 interface HeadsJson {
   out: string;

@@ -1,6 +1,5 @@
 import { createScorer } from "../../scorer/create-scorer.js";
-import { encodedLayout } from "../../scorer/encoded-layout.js";
-import type { ForestModel, HeadModel, ScoringModel } from "../../scorer/model-types.js";
+import type { ScoringModel } from "../../scorer/model-types.js";
 import { CategoryDictionary } from "../../trainer/data/category-dictionary.js";
 import { labelColumn, numberColumn } from "../../trainer/data/column-batch.js";
 import { openDataFile } from "../../trainer/data/open-data-file.js";
@@ -9,6 +8,7 @@ import type { HeadState } from "../../trainer/heads/head-state.js";
 import { calibration, normalizedEntropy } from "../../trainer/metrics/index.js";
 import type { ResolvedSchema } from "../../trainer/schema/load-dataset-schema.js";
 import type { ForestFile } from "../../trainer/trees/forest-file.js";
+import { forestHeadModels } from "../../trainer/study/forest-head-models.js";
 
 /** Held-out figures of one outcome. */
 export interface HeldOutFigures {
@@ -48,7 +48,9 @@ export async function heldOutFigures(
   };
   const scorer = createScorer(model);
   const outcomes = state.info.outcomes;
-  const treesOnly = createScorer({ ...model, heads: forestHeads(forests, model, outcomes) });
+  const forestHeads = forestHeadModels(forests, model.encoding, outcomes);
+  if (forestHeads.length !== outcomes.length) throw new Error("test: every outcome needs a forest");
+  const treesOnly = createScorer({ ...model, heads: forestHeads });
   const hybrid: number[][] = outcomes.map(() => []);
   const trees: number[][] = outcomes.map(() => []);
   const truth: number[][] = outcomes.map(() => []);
@@ -84,29 +86,5 @@ export async function heldOutFigures(
       trueNe: normalizedEntropy(Float64Array.from(truth[h]), y, rate),
       calibration: calibration(q, y),
     };
-  });
-}
-
-/** Heads that reproduce each outcome's forest alone: sigmoid(baseLogit + sum of reached leaf values). */
-function forestHeads(
-  forests: readonly ForestModel[],
-  model: ScoringModel,
-  outcomes: readonly string[],
-): HeadModel[] {
-  const layout = encodedLayout(forests, model.encoding);
-  return outcomes.map((outcome) => {
-    const f = forests.findIndex((forest) => forest.outcome === outcome);
-    if (f < 0) throw new Error(`test: no forest for outcome "${outcome}"`);
-    const forest = forests[f];
-    const leaves = 1 << forest.depth;
-    const index = new Int32Array(forest.trees.length * leaves);
-    const weight = new Float64Array(index.length);
-    forest.trees.forEach((tree, t) => {
-      for (let k = 0; k < leaves; k++) {
-        index[t * leaves + k] = layout.leafOffset[f] + t * leaves + k;
-        weight[t * leaves + k] = tree.leafValue[k];
-      }
-    });
-    return { outcome, bias: forest.baseLogit, index, weight, negativeKeepRate: 1 };
   });
 }

@@ -1,10 +1,10 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { rm } from "node:fs/promises";
 import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { runCli } from "../../trainer/cli/main.js";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadDatasetSchema } from "../../trainer/schema/load-dataset-schema.js";
 import { NOISE_FEATURES, pruningSchemaDocument, writePruningFixture } from "./pruning-fixture.js";
+import { runCliCaptured as run } from "../cli/run-cli-captured.js";
 
 // Invented ground truth: Plotline rows plus invented uniform-noise columns
 // (pruning-fixture.ts); the noise columns carry no signal by construction.
@@ -25,25 +25,6 @@ beforeAll(async () => {
   );
 }, 60_000);
 afterAll(() => rm(dir, { recursive: true, force: true }));
-
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const stdout = vi.spyOn(process.stdout, "write").mockImplementation((chunk) => {
-    out += String(chunk);
-    return true;
-  });
-  const stderr = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => {
-    err += String(chunk);
-    return true;
-  });
-  try {
-    return { code: await runCli(args), out, err };
-  } finally {
-    stdout.mockRestore();
-    stderr.mockRestore();
-  }
-}
 
 describe("leafcast prune-features", () => {
   it("prints the table, writes the reduced schema and the report", async () => {

@@ -1,9 +1,9 @@
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { writePlotlineDays } from "../../datasets/plotline/write-plotline-days.js";
-import { runCli } from "../../trainer/cli/main.js";
+import { runCliCaptured as run } from "../cli/run-cli-captured.js";
 
 // Invented ground truth: a small Plotline run (the project's own generator) through
 // the real command; the checks are on what the command must write and print.
@@ -35,26 +35,6 @@ beforeAll(async () => {
   );
 }, 60_000);
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-/** Runs the CLI in-process, returning its exit code and what it wrote to stdout and stderr. */
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = "";
-  let err = "";
-  const stdout = vi.spyOn(process.stdout, "write").mockImplementation((chunk) => {
-    out += String(chunk);
-    return true;
-  });
-  const stderr = vi.spyOn(process.stderr, "write").mockImplementation((chunk) => {
-    err += String(chunk);
-    return true;
-  });
-  try {
-    return { code: await runCli(args), out, err };
-  } finally {
-    stdout.mockRestore();
-    stderr.mockRestore();
-  }
-}
 
 describe("leafcast report", () => {
   it("writes one self-contained HTML report and prints the summary", async () => {

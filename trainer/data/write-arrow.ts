@@ -23,7 +23,7 @@ import {
   type WrittenBatch,
   type WrittenColumn,
 } from "./write-columns.js";
-import { writeStreamAtomic } from "./write-stream-atomic.js";
+import { writeStreamAtomic } from "../io/write-stream-atomic.js";
 
 /**
  * Streams batches to an Arrow IPC file (the random-access "file" format with

@@ -6,7 +6,7 @@ import {
   type WrittenBatch,
   type WrittenColumn,
 } from "./write-columns.js";
-import { writeStreamAtomic, type ByteSink } from "./write-stream-atomic.js";
+import { writeStreamAtomic, type ByteSink } from "../io/write-stream-atomic.js";
 
 /**
  * Streams batches to a Parquet file, one row group per batch, so memory stays

@@ -7,7 +7,7 @@ import {
   type WrittenValues,
 } from "./write-columns.js";
 import { planTextRows, writeTextRows, type TextRowLayout } from "./write-text-rows.js";
-import { writeStreamAtomic } from "./write-stream-atomic.js";
+import { writeStreamAtomic } from "../io/write-stream-atomic.js";
 
 /**
  * The shared driver of the text writers (CSV, NDJSON): writes `header`, then

@@ -1,7 +1,6 @@
 import { checkJsonSchema, type JsonSchema } from "../../scorer/json-schema-check.js";
 import type { ReadStats } from "../data/read-types.js";
-import { LeafcastError } from "../errors.js";
-import type { InputFileIdentity } from "../io/input-file-identity.js";
+import { inputFileIdentitySchema, type InputFileIdentity } from "../io/input-file-identity.js";
 import { decodeHeadState } from "./decode-head-state.js";
 import type { HeadState } from "./head-state.js";
 import {
@@ -9,6 +8,7 @@ import {
   HEAD_CHECKPOINT_VERSION,
   type HeadCheckpoint,
 } from "./head-checkpoint.js";
+import { damagedCheckpointError } from "../io/damaged-checkpoint-error.js";
 
 const count = { type: "integer", minimum: 0 };
 const headerSchema: JsonSchema = {
@@ -19,18 +19,7 @@ const headerSchema: JsonSchema = {
       type: "object",
       required: ["files", "start", "batchRows", "badRows"],
       properties: {
-        files: {
-          type: "array",
-          items: {
-            type: "object",
-            required: ["name", "bytes", "modifiedMs"],
-            properties: {
-              name: { type: "string" },
-              bytes: { type: "number" },
-              modifiedMs: { type: "number" },
-            },
-          },
-        },
+        files: { type: "array", items: inputFileIdentitySchema },
         start: { anyOf: [{ type: "string" }, { type: "null" }] },
         batchRows: count,
         badRows: { enum: ["fail", "skip"] },
@@ -80,13 +69,7 @@ interface HeaderDocument {
  */
 export function decodeHeadCheckpoint(bytes: Uint8Array, file = "<checkpoint>"): HeadCheckpoint {
   const fail = (message: string): never => {
-    throw new LeafcastError("checkpoint", [
-      {
-        code: "damaged_checkpoint",
-        message: `${message}; remove the checkpoint (or pass --restart) to start over`,
-        file,
-      },
-    ]);
+    throw damagedCheckpointError(message, file);
   };
   const magic = new TextDecoder().decode(bytes.subarray(0, 8));
   if (bytes.length < 16 || magic !== HEAD_CHECKPOINT_MAGIC) {

@@ -1,6 +1,7 @@
 import { stat } from "node:fs/promises";
 import { basename } from "node:path";
 import { LeafcastError } from "../errors.js";
+import type { JsonSchema } from "../../scorer/json-schema-check.js";
 
 /** How a checkpoint recognises an input file without reading it again: name, size and time of change. */
 export interface InputFileIdentity {
@@ -8,6 +9,17 @@ export interface InputFileIdentity {
   readonly bytes: number;
   readonly modifiedMs: number;
 }
+
+/** What an InputFileIdentity looks like in a checkpoint file (checked with checkJsonSchema). */
+export const inputFileIdentitySchema: JsonSchema = {
+  type: "object",
+  required: ["name", "bytes", "modifiedMs"],
+  properties: {
+    name: { type: "string" },
+    bytes: { type: "number" },
+    modifiedMs: { type: "number" },
+  },
+};
 
 /**
  * The identities of the input files of a run, in order. A file that cannot be

@@ -1,8 +1,4 @@
-import { open, rename, unlink } from "node:fs/promises";
-import { dirname } from "node:path";
-import { removeStaleTemps } from "./remove-stale-temps.js";
-import { syncDirectory } from "./sync-directory.js";
-import { tempPathFor } from "./temp-path-for.js";
+import { writeStreamAtomic } from "./write-stream-atomic.js";
 
 /**
  * Writes a file so that a reader (or a kill at any moment) sees either the old
@@ -16,20 +12,6 @@ import { tempPathFor } from "./temp-path-for.js";
  * await writeFileAtomic("runs/demo/trees.json", JSON.stringify(forests));
  */
 export async function writeFileAtomic(path: string, data: string | Uint8Array): Promise<void> {
-  const tmp = tempPathFor(path);
-  const handle = await open(tmp, "wx");
-  try {
-    try {
-      await handle.writeFile(data);
-      await handle.sync();
-    } finally {
-      await handle.close();
-    }
-    await rename(tmp, path);
-  } catch (error) {
-    await unlink(tmp).catch(() => undefined);
-    throw error;
-  }
-  await syncDirectory(dirname(path));
-  await removeStaleTemps(path);
+  const bytes = typeof data === "string" ? new TextEncoder().encode(data) : data;
+  await writeStreamAtomic(path, (sink) => sink.write(bytes));
 }

@@ -5,6 +5,7 @@ import type { ResolvedSchema } from "../schema/load-dataset-schema.js";
 import type { ResolvedTrainingConfig } from "../schema/load-training-config.js";
 import { chooseValidationRows } from "../trees/choose-validation-rows.js";
 import { RowReservoir } from "../trees/row-reservoir.js";
+import { weightedPositiveRate } from "../trees/weighted-positive-rate.js";
 
 /** Rows of the sample on one side of the held-out split, column by column. */
 export interface SampleRows {
@@ -109,7 +110,10 @@ export async function readPruningSample(
   const train = side(0);
   const trainingRate = new Map<string, number>();
   for (const outcome of schema.outcomes) {
-    trainingRate.set(outcome, rateOf(train.labels.get(outcome) as Uint8Array, train.weight));
+    trainingRate.set(
+      outcome,
+      weightedPositiveRate(train.labels.get(outcome) as Uint8Array, train.weight),
+    );
   }
   return {
     rowsRead: reservoir.seen,
@@ -122,15 +126,4 @@ export async function readPruningSample(
     ),
     trainingRate,
   };
-}
-
-function rateOf(label: Uint8Array, weight: Float64Array | null): number {
-  let positive = 0;
-  let total = 0;
-  for (let r = 0; r < label.length; r++) {
-    const w = weight === null ? 1 : weight[r];
-    positive += w * label[r];
-    total += w;
-  }
-  return total > 0 ? positive / total : 0;
 }

@@ -1,3 +1,5 @@
+import { weightedPositiveRate } from "./weighted-positive-rate.js";
+
 /**
  * A forest's starting log-odds: the logit of the weighted positive rate of the
  * rows not flagged in `exclude` (the validation rows). The rate is clamped to
@@ -12,15 +14,8 @@ export function baseLogit(
   weight: Float64Array | null,
   exclude: Uint8Array | null,
 ): number {
-  let positive = 0;
-  let total = 0;
-  for (let r = 0; r < label.length; r++) {
-    if (exclude !== null && exclude[r] === 1) continue;
-    const w = weight === null ? 1 : weight[r];
-    positive += w * label[r];
-    total += w;
-  }
-  const rate = Math.min(1 - RATE_FLOOR, Math.max(RATE_FLOOR, total > 0 ? positive / total : 0.5));
+  const observed = weightedPositiveRate(label, weight, exclude, 0.5);
+  const rate = Math.min(1 - RATE_FLOOR, Math.max(RATE_FLOOR, observed));
   return Math.log(rate / (1 - rate));
 }
 

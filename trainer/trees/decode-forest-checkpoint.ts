@@ -1,6 +1,5 @@
 import { createHash } from "node:crypto";
 import { checkJsonSchema } from "../../scorer/json-schema-check.js";
-import { LeafcastError } from "../errors.js";
 import type { InputFileIdentity } from "../io/input-file-identity.js";
 import {
   FOREST_CHECKPOINT_FORMAT,
@@ -10,6 +9,7 @@ import {
 } from "./forest-checkpoint.js";
 import { forestCheckpointSchema } from "./forest-checkpoint-schema.js";
 import type { GrownTree } from "./grown-tree.js";
+import { damagedCheckpointError } from "../io/damaged-checkpoint-error.js";
 
 interface TreeDocument {
   depth: number;
@@ -53,13 +53,7 @@ interface BodyDocument {
  */
 export function decodeForestCheckpoint(source: string, file = "<checkpoint>"): ForestCheckpoint {
   const fail = (message: string): never => {
-    throw new LeafcastError("checkpoint", [
-      {
-        code: "damaged_checkpoint",
-        message: `${message}; remove the checkpoint (or pass --restart) to start over`,
-        file,
-      },
-    ]);
+    throw damagedCheckpointError(message, file);
   };
   let outer: unknown;
   try {

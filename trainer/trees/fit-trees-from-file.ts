@@ -24,6 +24,7 @@ import type { ForestCheckpoint, ForestCheckpointInputs } from "./forest-checkpoi
 import { openForestCheckpoint } from "./open-forest-checkpoint.js";
 import { forestFileOf, type ForestFile } from "./forest-file.js";
 import { RowReservoir } from "./row-reservoir.js";
+import { weightedPositiveRate } from "./weighted-positive-rate.js";
 
 export interface FitTreesFromFileOptions {
   readonly onProgress?: (progress: TreeProgress) => void;
@@ -110,7 +111,7 @@ export async function fitTreesFromFile(
   const weight = schema.weight === null ? null : reservoir.numbers(schema.weight);
   const positiveRate = new Map<string, number>();
   for (const outcome of schema.outcomes)
-    positiveRate.set(outcome, rateOf(reservoir.labels(outcome), weight));
+    positiveRate.set(outcome, weightedPositiveRate(reservoir.labels(outcome), weight));
   const outcomes =
     settings.outcomes ??
     schema.outcomes.filter((outcome) => (positiveRate.get(outcome) ?? 0) >= settings.minForestRate);
@@ -183,15 +184,4 @@ export async function fitTreesFromFile(
     rowsSampled: n,
     positiveRate,
   };
-}
-
-function rateOf(label: Uint8Array, weight: Float64Array | null): number {
-  let positive = 0;
-  let total = 0;
-  for (let r = 0; r < label.length; r++) {
-    const w = weight === null ? 1 : weight[r];
-    positive += w * label[r];
-    total += w;
-  }
-  return total > 0 ? positive / total : 0;
 }

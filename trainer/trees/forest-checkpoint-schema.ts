@@ -1,4 +1,5 @@
 import type { JsonSchema } from "../../scorer/json-schema-check.js";
+import { inputFileIdentitySchema } from "../io/input-file-identity.js";
 
 const text = { type: "string" };
 /**
@@ -17,14 +18,7 @@ export const forestCheckpointSchema: JsonSchema = {
       type: "object",
       required: ["files", "schema", "settings", "sample"],
       properties: {
-        files: {
-          type: "array",
-          items: {
-            type: "object",
-            required: ["name", "bytes", "modifiedMs"],
-            properties: { name: text, bytes: { type: "number" }, modifiedMs: { type: "number" } },
-          },
-        },
+        files: { type: "array", items: inputFileIdentitySchema },
         schema: text,
         settings: text,
         sample: text,

@@ -1,8 +1,8 @@
-import { LeafcastError } from "../errors.js";
 import type { BinnedFeatures } from "./binned-features.js";
 import { writeSplitTable } from "./find-best-split.js";
 import type { GrownTree } from "./grown-tree.js";
 import { addTreeByTraversal } from "./score-kernels.js";
+import { damagedCheckpointError } from "../io/damaged-checkpoint-error.js";
 
 const NO_CHILD = { gradient: 0, hessian: 0, count: 0 };
 
@@ -44,12 +44,9 @@ export function rebuildCheckpointScores(
         (!categorical && (tree.threshold[i] < 0 || tree.threshold[i] >= valueBins)) ||
         (rightBins !== null && rightBins.some((b) => b >= valueBins))
       ) {
-        throw new LeafcastError("checkpoint", [
-          {
-            code: "damaged_checkpoint",
-            message: `tree ${t + 1} node ${i}: expected a split on one of ${binned.columnCount} binned columns within its bins; remove the checkpoint (or pass --restart) to start over`,
-          },
-        ]);
+        throw damagedCheckpointError(
+          `tree ${t + 1} node ${i}: expected a split on one of ${binned.columnCount} binned columns within its bins`,
+        );
       }
       const choice = {
         column,

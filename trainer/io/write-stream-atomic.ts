@@ -1,8 +1,8 @@
 import { open, rename, unlink } from "node:fs/promises";
 import { dirname } from "node:path";
-import { removeStaleTemps } from "../io/remove-stale-temps.js";
-import { syncDirectory } from "../io/sync-directory.js";
-import { tempPathFor } from "../io/temp-path-for.js";
+import { removeStaleTemps } from "./remove-stale-temps.js";
+import { syncDirectory } from "./sync-directory.js";
+import { tempPathFor } from "./temp-path-for.js";
 
 /** Where a streaming writer sends its bytes. */
 export interface ByteSink {
@@ -13,7 +13,7 @@ export interface ByteSink {
 }
 
 /**
- * The streaming twin of trainer/io/write-file-atomic.ts: `produce` appends
+ * Writes a file as a stream, atomically (writeFileAtomic is the one-buffer case): `produce` appends
  * bytes to a temporary sibling of `path`; when it resolves, the file is flushed
  * to disk and renamed over `path` (then the directory is flushed), so a reader,
  * or a kill at any moment, sees either the old file or the whole new one. When
