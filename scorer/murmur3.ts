@@ -74,7 +74,18 @@ export function murmur3Parts(parts: readonly string[], count: number, seed: numb
     }
   }
   if (pending > 0) h ^= scrambleBlock(k);
-  h ^= length;
+  return murmur3Finalize(h ^ length);
+}
+
+/**
+ * MurmurHash3's 32-bit finalizer (fmix32, Appleby): mixes every input bit into
+ * every output bit; the unsigned result.
+ *
+ * @example
+ * murmur3Finalize(0); // 0
+ */
+export function murmur3Finalize(x: number): number {
+  let h = x;
   h ^= h >>> 16;
   h = Math.imul(h, 0x85ebca6b);
   h ^= h >>> 13;

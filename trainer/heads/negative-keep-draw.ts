@@ -1,3 +1,5 @@
+import { murmur3Finalize } from "../../scorer/murmur3.js";
+
 /**
  * The uniform 32-bit draw that decides whether a negative row trains a head when
  * negatives are downsampled: keep when `draw < rate * 2^32`. It is a hash of the
@@ -12,18 +14,8 @@
 export function negativeKeepDraw(row: number, head: number, seed: number): number {
   // MurmurHash3's 32-bit finalizer (Appleby) mixes each word in turn; `>>> 0`
   // takes the low 32 bits of the row number exactly for any integer below 2^53.
-  let h = mix32((seed ^ Math.imul(head + 1, 0x9e3779b1)) >>> 0);
-  h = mix32((h ^ row) >>> 0);
-  h = mix32((h ^ Math.floor(row / 4294967296)) >>> 0);
+  let h = murmur3Finalize((seed ^ Math.imul(head + 1, 0x9e3779b1)) >>> 0);
+  h = murmur3Finalize((h ^ row) >>> 0);
+  h = murmur3Finalize((h ^ Math.floor(row / 4294967296)) >>> 0);
   return h;
-}
-
-function mix32(x: number): number {
-  let h = x;
-  h ^= h >>> 16;
-  h = Math.imul(h, 0x85ebca6b);
-  h ^= h >>> 13;
-  h = Math.imul(h, 0xc2b2ae35);
-  h ^= h >>> 16;
-  return h >>> 0;
 }

@@ -26,6 +26,7 @@ import type { ForestFile } from "../trees/forest-file.js";
 import { headBatchOf, type HeadColumns } from "./head-batch-of.js";
 import { headEncodingSpec } from "./head-encoding-spec.js";
 import { measureNumericStats, type NumericStats } from "./measure-numeric-stats.js";
+import { rejectsPathOfFile } from "../data/rejects-path-of-file.js";
 
 export interface LearnHeadsFromFilesOptions {
   /** Saved heads to continue; refused (LeafcastError from "heads") when learned on other trees, schema or settings. */
@@ -127,10 +128,7 @@ export async function learnHeadsFromFiles(
     openDataFile(path, schema, {
       batchRows: config.batchRows,
       badRows: options.badRows,
-      rejectsPath:
-        options.rejectsPath === undefined || paths.length === 1
-          ? options.rejectsPath
-          : `${options.rejectsPath}.${i + 1}`,
+      rejectsPath: rejectsPathOfFile(options.rejectsPath, i, paths.length),
       signal: options.signal,
       dictionaries,
     }),

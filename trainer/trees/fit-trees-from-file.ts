@@ -25,6 +25,7 @@ import { openForestCheckpoint } from "./open-forest-checkpoint.js";
 import { forestFileOf, type ForestFile } from "./forest-file.js";
 import { RowReservoir } from "./row-reservoir.js";
 import { weightedPositiveRate } from "./weighted-positive-rate.js";
+import { rejectsPathOfFile } from "../data/rejects-path-of-file.js";
 
 export interface FitTreesFromFileOptions {
   readonly onProgress?: (progress: TreeProgress) => void;
@@ -98,10 +99,7 @@ export async function fitTreesFromFile(
     const reader = openDataFile(path, schema, {
       batchRows: config.batchRows,
       badRows: options.badRows,
-      rejectsPath:
-        options.rejectsPath === undefined || paths.length === 1
-          ? options.rejectsPath
-          : `${options.rejectsPath}.${i + 1}`,
+      rejectsPath: rejectsPathOfFile(options.rejectsPath, i, paths.length),
       signal: options.signal,
       dictionaries,
     });
