@@ -23,6 +23,7 @@ import type {
   TreeModel,
 } from "../scorer/model-types.js";
 import { RowEncoder } from "../scorer/row-encoder.js";
+import type { HeadKernelChoice } from "../trainer/heads/block-trainer.js";
 import type { HeadBatch, HeadSetup } from "../trainer/heads/head-setup.js";
 import { learnHeads } from "../trainer/heads/learn-heads.js";
 import type { HeadSettings } from "../trainer/schema/load-training-config.js";
@@ -166,9 +167,9 @@ const setup: HeadSetup = {
   schemaFingerprint: "bench",
 };
 
-async function rowsPerSecond(workers: number, workerCopies: boolean): Promise<number> {
+async function rowsPerSecond(workers: number, kernel: HeadKernelChoice): Promise<number> {
   const started = performance.now();
-  const state = await learnHeads(encodedStream(), setup, { workers, workerCopies });
+  const state = await learnHeads(encodedStream(), setup, { workers, kernel });
   const seconds = (performance.now() - started) / 1000;
   if (state.rowCount < rows)
     throw new Error(`bench: expected ${rows} rows learned, found ${state.rowCount}`);
@@ -192,8 +193,8 @@ async function measure(what: string): Promise<void> {
   const rate =
     what === "encode"
       ? encodeOnly()
-      : // "2v": 2 workers viewing the state's arrays instead of their own copies.
-        await rowsPerSecond(Number.parseInt(what, 10), !what.endsWith("v"));
+      : // "2js": 2 workers with the JavaScript kernel instead of the WebAssembly one.
+        await rowsPerSecond(Number.parseInt(what, 10), what.endsWith("js") ? "js" : "simd");
   const cpu = process.cpuUsage(cpuBefore);
   const coreUsPerRow = (cpu.user + cpu.system) / rows;
   const peakRssMb = process.resourceUsage().maxRSS / 1024;
@@ -250,8 +251,10 @@ if (only >= 0) {
     byWorkers.set(workers, child(String(workers)));
     line(`encode + learn, ${workers} worker thread(s)`, byWorkers.get(workers) as Measured);
   }
-  const views = child(`${maxWorkers}v`);
-  line(`${maxWorkers} workers viewing the state's arrays`, views);
+  const scriptOne = child("0js");
+  line("JavaScript kernel, one core", scriptOne);
+  const scriptAll = child(`${maxWorkers}js`);
+  line(`JavaScript kernel, ${maxWorkers} worker thread(s)`, scriptAll);
   const allCores = byWorkers.get(maxWorkers) ?? oneCore;
   const peakRss = Math.max(oneCore.peakRssMb, allCores.peakRssMb);
   console.log(`  target: >= 250,000 rows/s on all ${maxWorkers} cores`);
@@ -263,7 +266,7 @@ if (only >= 0) {
       peak_rss_mb: Math.round(peakRss),
       rows_per_s_encode_only: round(encode),
       rows_per_s_by_workers: Object.fromEntries([...byWorkers].map(([w, m]) => [w, round(m)])),
-      rows_per_s_workers_viewing_state: round(views),
+      rows_per_s_js_kernel: { one_core: round(scriptOne), all_cores: round(scriptAll) },
       core_us_per_row: {
         encode: encode.coreUsPerRow,
         one_core: oneCore.coreUsPerRow,

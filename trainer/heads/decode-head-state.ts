@@ -2,7 +2,7 @@ import { checkJsonSchema } from "../../scorer/json-schema-check.js";
 import { LeafcastError, type Issue } from "../errors.js";
 import { HEAD_STATE_MAGIC, LITTLE_ENDIAN } from "./encode-head-state.js";
 import { headStateHeaderSchema, type HeadStateHeader } from "./head-state-header.js";
-import { HeadState } from "./head-state.js";
+import { COORDINATE_PAGE_SHIFT, HeadState } from "./head-state.js";
 import { STAT_FIELDS } from "./progressive-stats.js";
 
 /**
@@ -93,6 +93,7 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
     previous = c;
     state.z.set(z.subarray(k * heads, (k + 1) * heads), c * heads);
     state.n.set(n.subarray(k * heads, (k + 1) * heads), c * heads);
+    state.writtenPages[c >>> COORDINATE_PAGE_SHIFT] = 1;
   }
   const overall = new Float64Array(data.buffer, data.byteOffset + at, heads * STAT_FIELDS);
   at += 8 * heads * STAT_FIELDS;

@@ -3,6 +3,9 @@ import { ProgressiveStats } from "./progressive-stats.js";
 import { sharedFloat64 } from "./shared-float64.js";
 import { resolveHeadStateInfo, type HeadStateInfo } from "./resolve-head-state-info.js";
 
+/** Coordinates per page of `writtenPages` (2^9). */
+export const COORDINATE_PAGE_SHIFT = 9;
+
 /**
  * The learning state of every head of a model: FTRL-Proximal's z and n per
  * coordinate, what it was learned under, the rows and time window it has seen,
@@ -22,6 +25,14 @@ export class HeadState {
   readonly z: Float64Array;
   readonly n: Float64Array;
   readonly progressive: ProgressiveStats;
+  /**
+   * Per page of 2^COORDINATE_PAGE_SHIFT coordinates, 1 where z or n may be
+   * non-zero. Copies into and out of the WebAssembly kernel's layout skip the
+   * other pages: on some machines first touching a page of memory costs tens of
+   * microseconds, so copying a 100 MB state that is mostly zero costs seconds.
+   * Whatever writes z or n must mark the pages (the decoder and the merges do).
+   */
+  readonly writtenPages: Uint8Array;
   /** Rows seen by every run of this state; also numbers the rows for downsampling. */
   rowCount = 0;
   /** Earliest and latest row timestamp seen (ms since the Unix epoch), null before any. */
@@ -34,6 +45,9 @@ export class HeadState {
     this.z = sharedFloat64(length);
     this.n = sharedFloat64(length);
     this.progressive = new ProgressiveStats(info.outcomes.length, info.sliceHours);
+    this.writtenPages = new Uint8Array(
+      Math.ceil((info.indexSize + 1) / 2 ** COORDINATE_PAGE_SHIFT),
+    );
   }
 
   /** A fresh state (all weights zero) for a checked setup. */

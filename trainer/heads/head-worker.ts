@@ -4,8 +4,8 @@
  * `{ ok: true }` or `{ error }` per batch. Started by WorkerHeadRunner.
  */
 import { parentPort, workerData } from "node:worker_threads";
-import type { FtrlRule, HeadBlock, KernelBatch } from "./head-block.js";
-import { trainHeadBlock } from "./train-head-block.js";
+import { BlockTrainer, type TrainingBlock } from "./block-trainer.js";
+import type { FtrlRule, KernelBatch } from "./head-block.js";
 
 /** What the main thread posts per batch; `sliceStats` replaces the block's when the slices outgrew it. */
 export interface HeadWorkerMessage {
@@ -18,19 +18,19 @@ export type HeadWorkerReply = { readonly ok: true } | { readonly error: string }
 
 /** Passed as workerData. */
 export interface HeadWorkerData {
-  readonly block: HeadBlock;
+  readonly block: TrainingBlock;
   readonly rule: FtrlRule;
 }
 
 const port = parentPort;
 if (port !== null) {
   const data = workerData as HeadWorkerData;
-  let block = data.block;
+  const trainer = new BlockTrainer(data.block, data.rule);
   port.on("message", (message: HeadWorkerMessage) => {
     let reply: HeadWorkerReply;
     try {
-      if (message.sliceStats !== null) block = { ...block, sliceStats: message.sliceStats };
-      trainHeadBlock(block, data.rule, message.batch);
+      if (message.sliceStats !== null) trainer.useSliceStats(message.sliceStats);
+      trainer.train(message.batch);
       reply = { ok: true };
     } catch (error) {
       reply = { error: error instanceof Error ? (error.stack ?? error.message) : String(error) };

@@ -1,54 +1,52 @@
-import type { FtrlRule, HeadBlock } from "./head-block.js";
+import { BlockTrainer, type HeadKernelChoice, type TrainingBlock } from "./block-trainer.js";
+import { growBlockSlices } from "./grow-block-slices.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
 import type { HeadState } from "./head-state.js";
 import { makeFtrlRule } from "./make-ftrl-rule.js";
+import { makeTrainingBlocks } from "./make-training-blocks.js";
+import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { packLabels } from "./pack-labels.js";
-import { trainHeadBlock } from "./train-head-block.js";
 
 /**
- * Trains every head on the calling thread, straight on the state's arrays.
+ * Trains every head on the calling thread: with the WebAssembly kernel on its
+ * own copy of the heads (merged back by drain), or with trainHeadBlock straight
+ * on the state's arrays.
  *
  * @example
  * const runner = new InlineHeadRunner(state);
  * await runner.submit(batch, state.rowCount, maxRowLength);
+ * await runner.drain(); // state.z and state.n are current
  */
 export class InlineHeadRunner implements HeadRunner {
   private readonly state: HeadState;
-  private readonly rule: FtrlRule;
-  private readonly heads: Int32Array;
+  private readonly blocks: TrainingBlock[];
+  private readonly trainers: BlockTrainer[];
   private labels = new Uint8Array(0);
   private slots = new Int32Array(0);
 
-  constructor(state: HeadState) {
+  constructor(state: HeadState, kernel: HeadKernelChoice = "simd") {
     this.state = state;
-    this.rule = makeFtrlRule(state.info);
-    this.heads = Int32Array.from(state.info.outcomes, (_, h) => h);
+    this.blocks = makeTrainingBlocks(state, 1, kernel, false);
+    const rule = makeFtrlRule(state.info);
+    this.trainers = this.blocks.map((block) => new BlockTrainer(block, rule));
   }
 
   submit(batch: HeadBatch, rowBase: number, maxRowLength: number): Promise<void> {
     const { rowCount } = batch.encoded;
     const { state } = this;
-    const stats = state.progressive;
     if (this.labels.length < rowCount * state.headCount) {
       this.labels = new Uint8Array(rowCount * state.headCount);
       this.slots = new Int32Array(rowCount);
     }
     packLabels(batch.labels, rowCount, this.labels);
     if (batch.timestamps !== null) {
-      stats.assignSlots(batch.timestamps, rowCount, this.slots);
-      stats.ensureCapacity();
+      state.progressive.assignSlots(batch.timestamps, rowCount, this.slots);
     }
-    const block: HeadBlock = {
-      heads: this.heads,
-      stride: state.headCount,
-      offset: 0,
-      z: state.z,
-      n: state.n,
-      overall: stats.overall,
-      sliceStats: stats.sliceStats,
-    };
-    trainHeadBlock(block, this.rule, {
+    growBlockSlices(state, this.blocks).forEach((moved, b) => {
+      if (moved !== null) this.trainers[b].useSliceStats(moved);
+    });
+    const kernelBatch = {
       rowCount,
       offsets: batch.encoded.offsets,
       index: batch.encoded.index,
@@ -58,11 +56,13 @@ export class InlineHeadRunner implements HeadRunner {
       slots: batch.timestamps === null ? null : this.slots,
       rowBase,
       maxRowLength,
-    });
+    };
+    for (const trainer of this.trainers) trainer.train(kernelBatch);
     return Promise.resolve();
   }
 
   drain(): Promise<void> {
+    mergeTrainingBlocks(this.state, this.blocks);
     return Promise.resolve();
   }
 

@@ -2,6 +2,7 @@ import { availableParallelism } from "node:os";
 import { CheckpointSchedule } from "../io/checkpoint-schedule.js";
 import { checkHeadBatch } from "./check-head-batch.js";
 import { checkResume } from "./check-resume.js";
+import type { HeadKernelChoice } from "./block-trainer.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch, HeadSetup } from "./head-setup.js";
 import { HeadState } from "./head-state.js";
@@ -28,6 +29,12 @@ export interface LearnHeadsOptions {
    * state's. Default SEPARATE_BLOCKS, chosen with `npm run bench:heads`.
    */
   readonly workerCopies?: boolean;
+  /**
+   * "simd" (default): the WebAssembly kernel, on a copy of each thread's heads
+   * in its layout, where that fits WebAssembly's 4 GiB (else "js"); "js": the
+   * JavaScript kernel. Both give the same bits.
+   */
+  readonly kernel?: HeadKernelChoice;
   /** Checkpoint after the batch in which the row count passes a multiple of this (0: never). */
   readonly everyRows?: number;
   /** Also checkpoint after the first batch that ends this many seconds after the last checkpoint (0: never). */
@@ -59,13 +66,14 @@ export async function learnHeads(
   const state = options.state ?? HeadState.create(setup);
   if (options.state !== undefined) checkResume(options.state, setup);
   const workers = options.workers ?? DEFAULT_HEAD_WORKERS;
+  const kernel = options.kernel ?? "simd";
   const everyRows = options.everyRows ?? 0;
   // Rows are counted from the state's own row count (so a resumed run keeps the same rhythm); the schedule only keeps time.
   const clock = new CheckpointSchedule(0, options.everySeconds ?? 0);
   const runner: HeadRunner =
     workers > 0
-      ? WorkerHeadRunner.start(state, workers, options.workerCopies ?? SEPARATE_BLOCKS)
-      : new InlineHeadRunner(state);
+      ? WorkerHeadRunner.start(state, workers, options.workerCopies ?? SEPARATE_BLOCKS, kernel)
+      : new InlineHeadRunner(state, kernel);
   let batchNumber = 0;
   try {
     for await (const batch of batches) {

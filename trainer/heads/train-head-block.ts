@@ -1,16 +1,6 @@
 import { ftrlWeight } from "./ftrl-weight.js";
 import type { FtrlRule, HeadBlock, KernelBatch } from "./head-block.js";
-import { negativeKeepDraw } from "./negative-keep-draw.js";
-import {
-  STAT_FIELDS,
-  STAT_LOSS,
-  STAT_POSITIVE,
-  STAT_PREDICTED,
-  STAT_ROWS,
-  STAT_WEIGHT,
-} from "./progressive-stats.js";
-
-const TWO_POW_32 = 4294967296;
+import { HeadRowOutcomes } from "./head-row-outcomes.js";
 
 /**
  * One pass of FTRL-Proximal (McMahan et al. 2013, Algorithm 1) over a batch for
@@ -29,27 +19,17 @@ const TWO_POW_32 = 4294967296;
  * trainHeadBlock(block, rule, batch); // advances block.z, block.n and its sums
  */
 export function trainHeadBlock(block: HeadBlock, rule: FtrlRule, batch: KernelBatch): void {
-  const { z, n, overall, sliceStats, heads, stride, offset } = block;
+  const { z, n, heads, stride, offset } = block;
   const hb = heads.length;
-  const { rowCount, offsets, index, value, labels, weights, slots, rowBase } = batch;
+  const { rowCount, offsets, index, value } = batch;
   const invAlpha = 1 / rule.alpha;
   const beta = rule.beta;
   const lambda1 = rule.lambda1;
   const lambda2 = rule.lambda2;
-  const seed = rule.seed;
   const biasBase = rule.biasCoordinate * stride + offset;
 
-  const keepThreshold = new Float64Array(hb);
-  const negativeWeight = new Float64Array(hb);
-  const servingShift = new Float64Array(hb);
-  const labelOffset = new Int32Array(hb);
-  for (let h = 0; h < hb; h++) {
-    const rate = rule.keepRate[heads[h]];
-    keepThreshold[h] = rate * TWO_POW_32;
-    negativeWeight[h] = rule.weightNegatives ? 1 / rate : 1;
-    servingShift[h] = rule.weightNegatives ? 0 : Math.log(rate);
-    labelOffset[h] = heads[h] * rowCount;
-  }
+  const outcomes = new HeadRowOutcomes(heads, rule);
+  outcomes.begin(batch, block);
   const wScratch = new Float64Array(Math.max(1, batch.maxRowLength) * hb);
   const sScratch = new Float64Array(wScratch.length);
   const biasW = new Float64Array(hb);
@@ -88,43 +68,7 @@ export function trainHeadBlock(block: HeadBlock, rule: FtrlRule, batch: KernelBa
       }
     }
 
-    const weight = weights === null ? 1 : weights[r];
-    const slot = slots === null ? -1 : slots[r];
-    let trains = false;
-    for (let h = 0; h < hb; h++) {
-      const y = labels[labelOffset[h] + r];
-      const m = logit[h];
-      // Progressive validation on the served probability: logit shifted by ln(rate) under "recalibrate".
-      const served = m + servingShift[h];
-      const e = Math.exp(-Math.abs(served));
-      const q = served >= 0 ? 1 / (1 + e) : e / (1 + e);
-      const loss = Math.max(y === 1 ? -served : served, 0) + Math.log1p(e);
-      let at = (offset + h) * STAT_FIELDS;
-      overall[at + STAT_LOSS] += weight * loss;
-      overall[at + STAT_WEIGHT] += weight;
-      overall[at + STAT_PREDICTED] += weight * q;
-      overall[at + STAT_POSITIVE] += weight * y;
-      overall[at + STAT_ROWS] += 1;
-      if (slot >= 0) {
-        at = (slot * stride + offset + h) * STAT_FIELDS;
-        sliceStats[at + STAT_LOSS] += weight * loss;
-        sliceStats[at + STAT_WEIGHT] += weight;
-        sliceStats[at + STAT_PREDICTED] += weight * q;
-        sliceStats[at + STAT_POSITIVE] += weight * y;
-        sliceStats[at + STAT_ROWS] += 1;
-      }
-      const keep =
-        y === 1 ||
-        keepThreshold[h] >= TWO_POW_32 ||
-        negativeKeepDraw(rowBase + r, heads[h], seed) < keepThreshold[h];
-      if (keep) {
-        const p = servingShift[h] === 0 ? q : 1 / (1 + Math.exp(-m));
-        grad[h] = (y === 1 ? weight : weight * negativeWeight[h]) * (p - y);
-        trains = true;
-      } else {
-        grad[h] = 0;
-      }
-    }
+    const trains = outcomes.row(r, logit, grad);
     // A head with gradient 0 leaves z and n bit for bit unchanged below, so only
     // a row that trains no head of the block can skip the update pass.
     if (!trains) continue;

@@ -1,18 +1,17 @@
 import { Worker } from "node:worker_threads";
 import { LeafcastError } from "../errors.js";
-import type { HeadBlock } from "./head-block.js";
+import type { HeadKernelChoice, TrainingBlock } from "./block-trainer.js";
+import { growBlockSlices } from "./grow-block-slices.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
 import type { HeadState } from "./head-state.js";
 import type { HeadWorkerData, HeadWorkerMessage, HeadWorkerReply } from "./head-worker.js";
 import { makeFtrlRule } from "./make-ftrl-rule.js";
-import { mergeHeadBlocks } from "./merge-head-blocks.js";
-import { STAT_FIELDS } from "./progressive-stats.js";
+import { makeTrainingBlocks } from "./make-training-blocks.js";
+import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { SharedBatchBuffers } from "./shared-batch-buffers.js";
-import { sharedFloat64 } from "./shared-float64.js";
-import { splitHeadBlocks } from "./split-head-blocks.js";
 
-/** Whether workers get their own copies of their heads' arrays: measured in bench/heads.ts. */
+/** Whether workers get their own copies of their heads' arrays under trainHeadBlock: measured in bench/heads.ts. */
 export const SEPARATE_BLOCKS = true;
 
 /**
@@ -30,13 +29,13 @@ export const SEPARATE_BLOCKS = true;
  */
 export class WorkerHeadRunner implements HeadRunner {
   private readonly state: HeadState;
-  private readonly blocks: HeadBlock[];
+  private readonly blocks: TrainingBlock[];
   private readonly workers: WorkerChannel[];
   private readonly buffers = [new SharedBatchBuffers(), new SharedBatchBuffers()];
   private turn = 0;
   private inflight: Promise<unknown> = Promise.resolve();
 
-  private constructor(state: HeadState, blocks: HeadBlock[]) {
+  private constructor(state: HeadState, blocks: TrainingBlock[]) {
     this.state = state;
     this.blocks = blocks;
     const rule = makeFtrlRule(state.info);
@@ -44,12 +43,18 @@ export class WorkerHeadRunner implements HeadRunner {
   }
 
   /**
-   * Splits the heads over min(threads, heads) workers and starts them; with
-   * `copies`, each worker's heads get their own arrays (see splitHeadBlocks).
+   * Splits the heads over min(threads, heads) workers (or more blocks, if the
+   * WebAssembly kernel needs them) and starts them; `copies` matters only for
+   * the "js" kernel (see splitHeadBlocks).
    */
-  static start(state: HeadState, threads: number, copies = SEPARATE_BLOCKS): WorkerHeadRunner {
+  static start(
+    state: HeadState,
+    threads: number,
+    copies = SEPARATE_BLOCKS,
+    kernel: HeadKernelChoice = "simd",
+  ): WorkerHeadRunner {
     const groups = Math.min(threads, state.headCount);
-    return new WorkerHeadRunner(state, splitHeadBlocks(state, groups, copies));
+    return new WorkerHeadRunner(state, makeTrainingBlocks(state, groups, kernel, copies));
   }
 
   async submit(batch: HeadBatch, rowBase: number, maxRowLength: number): Promise<void> {
@@ -61,11 +66,9 @@ export class WorkerHeadRunner implements HeadRunner {
       stats.assignSlots(batch.timestamps, batch.encoded.rowCount, buffers.slots);
     }
     await this.inflight;
-    const grown = this.growSlices();
+    const moved = growBlockSlices(this.state, this.blocks);
     this.inflight = Promise.all(
-      this.workers.map((worker, b) =>
-        worker.run({ batch: kernelBatch, sliceStats: grown ? this.blocks[b].sliceStats : null }),
-      ),
+      this.workers.map((worker, b) => worker.run({ batch: kernelBatch, sliceStats: moved[b] })),
     );
     // A failure surfaces at the next await of `inflight`, not as an unhandled rejection.
     this.inflight.catch(() => undefined);
@@ -73,37 +76,12 @@ export class WorkerHeadRunner implements HeadRunner {
 
   async drain(): Promise<void> {
     await this.inflight;
-    mergeHeadBlocks(this.state, this.blocks);
+    mergeTrainingBlocks(this.state, this.blocks);
   }
 
   async close(): Promise<void> {
     await this.inflight.catch(() => undefined);
     await Promise.all(this.workers.map((worker) => worker.terminate()));
-  }
-
-  /** Gives every block room for the slices registered so far; true when any grew. Workers must be idle. */
-  private growSlices(): boolean {
-    const stats = this.state.progressive;
-    stats.ensureCapacity();
-    let grown = false;
-    this.blocks.forEach((block, b) => {
-      if (block.z === this.state.z) {
-        if (block.sliceStats !== stats.sliceStats) {
-          this.blocks[b] = { ...block, sliceStats: stats.sliceStats };
-          grown = true;
-        }
-        return;
-      }
-      const hb = block.heads.length;
-      let capacity = block.sliceStats.length / (hb * STAT_FIELDS);
-      if (capacity >= stats.sliceCount) return;
-      while (capacity < stats.sliceCount) capacity *= 2;
-      const larger = sharedFloat64(capacity * hb * STAT_FIELDS);
-      larger.set(block.sliceStats);
-      this.blocks[b] = { ...block, sliceStats: larger };
-      grown = true;
-    });
-    return grown;
   }
 }
 
