@@ -25,7 +25,7 @@ import type {
 import { RowEncoder } from "../scorer/row-encoder.js";
 import type { HeadKernelChoice } from "../trainer/heads/block-trainer.js";
 import type { HeadBatch, HeadSetup } from "../trainer/heads/head-setup.js";
-import { learnHeads } from "../trainer/heads/learn-heads.js";
+import { CALLER_TRAINS, learnHeads } from "../trainer/heads/learn-heads.js";
 import type { HeadSettings } from "../trainer/schema/load-training-config.js";
 
 function option(name: string, fallback: number): number {
@@ -167,9 +167,13 @@ const setup: HeadSetup = {
   schemaFingerprint: "bench",
 };
 
-async function rowsPerSecond(workers: number, kernel: HeadKernelChoice): Promise<number> {
+async function rowsPerSecond(
+  workers: number,
+  kernel: HeadKernelChoice,
+  callerTrains: boolean,
+): Promise<number> {
   const started = performance.now();
-  const state = await learnHeads(encodedStream(), setup, { workers, kernel });
+  const state = await learnHeads(encodedStream(), setup, { workers, kernel, callerTrains });
   const seconds = (performance.now() - started) / 1000;
   if (state.rowCount < rows)
     throw new Error(`bench: expected ${rows} rows learned, found ${state.rowCount}`);
@@ -193,8 +197,13 @@ async function measure(what: string): Promise<void> {
   const rate =
     what === "encode"
       ? encodeOnly()
-      : // "2js": 2 workers with the JavaScript kernel instead of the WebAssembly one.
-        await rowsPerSecond(Number.parseInt(what, 10), what.endsWith("js") ? "js" : "simd");
+      : // "2js": 2 workers with the JavaScript kernel instead of the WebAssembly one;
+        // "2c": 2 training threads, the calling thread one of them; "2w": 2 workers beside it.
+        await rowsPerSecond(
+          Number.parseInt(what, 10),
+          what.endsWith("js") ? "js" : "simd",
+          what.endsWith("c") ? true : what.endsWith("w") ? false : CALLER_TRAINS,
+        );
   const cpu = process.cpuUsage(cpuBefore);
   const coreUsPerRow = (cpu.user + cpu.system) / rows;
   const peakRssMb = process.resourceUsage().maxRSS / 1024;

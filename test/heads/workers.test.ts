@@ -23,18 +23,25 @@ const setup = headSetup(["open", "react", "reply", "save", "hide"], syntheticInd
 });
 
 describe("heads on worker threads", () => {
-  it("gives bit for bit the same state with 0, 1, 2 and 3 workers", async () => {
+  it("gives bit for bit the same state with 0, 1, 2 and 3 threads and either kernel", async () => {
     const inline = await learnHeads(batchesOf(rows, 0, 6000, 1024), setup, { workers: 0 });
     expect(inline.progressive.sliceCount).toBe(72);
-    for (const [workers, workerCopies] of [
-      [1, true],
-      [2, true],
-      [2, false],
-      [3, true],
+    for (const [workers, kernel, workerCopies, callerTrains] of [
+      [0, "js", true, false],
+      [1, "simd", true, false],
+      [2, "simd", true, false],
+      [2, "simd", true, true],
+      [3, "simd", true, true],
+      [3, "simd", true, false],
+      [2, "js", true, false],
+      [2, "js", false, false],
+      [2, "js", true, true],
     ] as const) {
       const threaded = await learnHeads(batchesOf(rows, 0, 6000, 1024), setup, {
         workers,
+        kernel,
         workerCopies,
+        callerTrains,
       });
       expect(sameBits(threaded.z, inline.z)).toBe(true);
       expect(sameBits(threaded.n, inline.n)).toBe(true);

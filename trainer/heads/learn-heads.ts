@@ -18,6 +18,9 @@ import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
  */
 export const DEFAULT_HEAD_WORKERS = Math.max(1, availableParallelism());
 
+/** Whether the calling thread trains a block of heads beside the workers: measured in bench/heads.ts. */
+export const CALLER_TRAINS = false;
+
 export interface LearnHeadsOptions {
   /** A state to continue (checked against the setup first); it is advanced in place and returned. */
   readonly state?: HeadState;
@@ -35,6 +38,12 @@ export interface LearnHeadsOptions {
    * JavaScript kernel. Both give the same bits.
    */
   readonly kernel?: HeadKernelChoice;
+  /**
+   * With 2 or more workers: the calling thread trains one block of heads itself
+   * between batches, so `workers` counts it and one fewer worker thread starts.
+   * Default CALLER_TRAINS, chosen with `npm run bench:heads`.
+   */
+  readonly callerTrains?: boolean;
   /** Checkpoint after the batch in which the row count passes a multiple of this (0: never). */
   readonly everyRows?: number;
   /** Also checkpoint after the first batch that ends this many seconds after the last checkpoint (0: never). */
@@ -72,7 +81,13 @@ export async function learnHeads(
   const clock = new CheckpointSchedule(0, options.everySeconds ?? 0);
   const runner: HeadRunner =
     workers > 0
-      ? WorkerHeadRunner.start(state, workers, options.workerCopies ?? SEPARATE_BLOCKS, kernel)
+      ? WorkerHeadRunner.start(
+          state,
+          workers,
+          options.workerCopies ?? SEPARATE_BLOCKS,
+          kernel,
+          options.callerTrains ?? CALLER_TRAINS,
+        )
       : new InlineHeadRunner(state, kernel);
   let batchNumber = 0;
   try {

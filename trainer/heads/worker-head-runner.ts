@@ -1,6 +1,6 @@
 import { Worker } from "node:worker_threads";
 import { LeafcastError } from "../errors.js";
-import type { HeadKernelChoice, TrainingBlock } from "./block-trainer.js";
+import { BlockTrainer, type HeadKernelChoice, type TrainingBlock } from "./block-trainer.js";
 import { growBlockSlices } from "./grow-block-slices.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
@@ -15,11 +15,12 @@ import { SharedBatchBuffers } from "./shared-batch-buffers.js";
 export const SEPARATE_BLOCKS = true;
 
 /**
- * Trains heads on worker threads, each owning a block of heads in shared memory.
- * One batch is in flight at a time, in one of two shared buffers, so the caller
- * reads and encodes the next batch while the workers train on this one. Every
- * head sees the same rows in the same order as on one thread, so results are
- * bit for bit those of InlineHeadRunner.
+ * Trains heads on worker threads, each owning a block of heads in shared memory,
+ * and optionally on the calling thread too (the last block, trained inside
+ * submit). One batch is in flight at a time, in one of two shared buffers, so
+ * the caller reads and encodes the next batch while the workers train on this
+ * one. Every head sees the same rows in the same order as on one thread, so
+ * results are bit for bit those of InlineHeadRunner.
  *
  * @example
  * const runner = WorkerHeadRunner.start(state, 2);
@@ -31,30 +32,37 @@ export class WorkerHeadRunner implements HeadRunner {
   private readonly state: HeadState;
   private readonly blocks: TrainingBlock[];
   private readonly workers: WorkerChannel[];
+  /** The calling thread's own block (the last), or null. */
+  private readonly local: BlockTrainer | null;
   private readonly buffers = [new SharedBatchBuffers(), new SharedBatchBuffers()];
   private turn = 0;
   private inflight: Promise<unknown> = Promise.resolve();
 
-  private constructor(state: HeadState, blocks: TrainingBlock[]) {
+  private constructor(state: HeadState, blocks: TrainingBlock[], callerTrains: boolean) {
     this.state = state;
     this.blocks = blocks;
     const rule = makeFtrlRule(state.info);
-    this.workers = blocks.map((block) => new WorkerChannel({ block, rule }));
+    const onWorkers = callerTrains && blocks.length > 1 ? blocks.length - 1 : blocks.length;
+    this.workers = blocks.slice(0, onWorkers).map((block) => new WorkerChannel({ block, rule }));
+    this.local = onWorkers < blocks.length ? new BlockTrainer(blocks[onWorkers], rule) : null;
   }
 
   /**
-   * Splits the heads over min(threads, heads) workers (or more blocks, if the
-   * WebAssembly kernel needs them) and starts them; `copies` matters only for
-   * the "js" kernel (see splitHeadBlocks).
+   * Splits the heads into min(threads, heads) blocks (or more, if the
+   * WebAssembly kernel needs them) and starts a worker per block, or per block
+   * but the last with `callerTrains` (the calling thread trains that one);
+   * `copies` matters only for the "js" kernel (see splitHeadBlocks).
    */
   static start(
     state: HeadState,
     threads: number,
     copies = SEPARATE_BLOCKS,
     kernel: HeadKernelChoice = "simd",
+    callerTrains = false,
   ): WorkerHeadRunner {
     const groups = Math.min(threads, state.headCount);
-    return new WorkerHeadRunner(state, makeTrainingBlocks(state, groups, kernel, copies));
+    const blocks = makeTrainingBlocks(state, groups, kernel, copies);
+    return new WorkerHeadRunner(state, blocks, callerTrains);
   }
 
   async submit(batch: HeadBatch, rowBase: number, maxRowLength: number): Promise<void> {
@@ -72,6 +80,11 @@ export class WorkerHeadRunner implements HeadRunner {
     );
     // A failure surfaces at the next await of `inflight`, not as an unhandled rejection.
     this.inflight.catch(() => undefined);
+    if (this.local !== null) {
+      const own = moved[this.workers.length];
+      if (own !== null) this.local.useSliceStats(own);
+      this.local.train(kernelBatch);
+    }
   }
 
   async drain(): Promise<void> {
