@@ -3,10 +3,12 @@
  * plus 10 hashed categorical features (2^20 buckets), encoding included: each
  * batch goes through the scorer's RowEncoder (tree traversal + MurmurHash3),
  * then every head is scored (progressive validation) and trained on it. Timed on
- * one core (everything on the main thread) and with worker threads (the main
- * thread encodes the next batch while the workers train on this one), with peak
- * RSS. Data and trees are generated here (invented Plotline-like columns) before
- * timing starts. The last line is one JSON object of the figures.
+ * one core (everything on the main thread) and with 1..N training threads (the
+ * main thread encodes the next batch while workers train on this one; with
+ * CALLER_TRAINS it also trains one block of heads), each with the WebAssembly
+ * kernel and, as the reference, the JavaScript kernel; with peak RSS. Data and
+ * trees are generated here (invented Plotline-like columns) before timing
+ * starts. The last line is one JSON object of the figures.
  *
  * Target: >= 250,000 rows per second on the 2-core machine.
  *
@@ -258,8 +260,17 @@ if (only >= 0) {
   const byWorkers = new Map<number, Measured>();
   for (let workers = 1; workers <= maxWorkers; workers++) {
     byWorkers.set(workers, child(String(workers)));
-    line(`encode + learn, ${workers} worker thread(s)`, byWorkers.get(workers) as Measured);
+    const label = workers > 1 && CALLER_TRAINS ? "training threads" : "worker thread(s)";
+    line(`encode + learn, ${workers} ${label}`, byWorkers.get(workers) as Measured);
   }
+  // The arrangement CALLER_TRAINS did not choose, for comparison.
+  const other = child(`${maxWorkers}${CALLER_TRAINS ? "w" : "c"}`);
+  line(
+    CALLER_TRAINS
+      ? `encode + learn, ${maxWorkers} workers beside the caller`
+      : `encode + learn, caller + ${maxWorkers - 1} worker(s)`,
+    other,
+  );
   const scriptOne = child("0js");
   line("JavaScript kernel, one core", scriptOne);
   const scriptAll = child(`${maxWorkers}js`);
@@ -275,6 +286,7 @@ if (only >= 0) {
       peak_rss_mb: Math.round(peakRss),
       rows_per_s_encode_only: round(encode),
       rows_per_s_by_workers: Object.fromEntries([...byWorkers].map(([w, m]) => [w, round(m)])),
+      rows_per_s_other_arrangement: round(other),
       rows_per_s_js_kernel: { one_core: round(scriptOne), all_cores: round(scriptAll) },
       core_us_per_row: {
         encode: encode.coreUsPerRow,

@@ -10,7 +10,8 @@ import { HeadRowOutcomes } from "./head-row-outcomes.js";
  * the row), the downsampling decision, then the z and n updates with the
  * gradient (p - y) x scaled by the sample weight (and 1/rate for kept negatives
  * under "weight"). The bias has the same per-coordinate rate but no L1 or L2.
- * Entries of a row with the same index (hash collisions) are applied in turn.
+ * Entries of a row with the same index (hash collisions) must be adjacent, as
+ * the encoder writes them; each is applied in turn.
  *
  * The only allocations are scratch arrays per call, none per row.
  *
@@ -30,6 +31,7 @@ export function trainHeadBlock(block: HeadBlock, rule: FtrlRule, batch: KernelBa
   const outcomes = new HeadRowOutcomes(heads, rule);
   outcomes.begin(batch, block);
   const wScratch = new Float64Array(Math.max(1, batch.maxRowLength) * hb);
+  const sScratch = new Float64Array(wScratch.length);
   const biasW = new Float64Array(hb);
   const biasS = new Float64Array(hb);
   const logit = new Float64Array(hb);
@@ -58,7 +60,9 @@ export function trainHeadBlock(block: HeadBlock, rule: FtrlRule, batch: KernelBa
       const x = value === null ? 1 : value[k];
       const base = index[k] * stride + offset;
       for (let h = 0; h < hb; h++) {
-        const w = ftrlWeight(z[base + h], Math.sqrt(n[base + h]), invAlpha, beta, lambda1, lambda2);
+        const s = Math.sqrt(n[base + h]);
+        const w = ftrlWeight(z[base + h], s, invAlpha, beta, lambda1, lambda2);
+        sScratch[o + h] = s;
         wScratch[o + h] = w;
         logit[h] += w * x;
       }
@@ -79,16 +83,17 @@ export function trainHeadBlock(block: HeadBlock, rule: FtrlRule, batch: KernelBa
     for (let k = start, o = 0; k < end; k++, o += hb) {
       const x = value === null ? 1 : value[k];
       const base = index[k] * stride + offset;
+      // A repeated index (two hashed features in one bucket; the encoder puts
+      // them side by side) is updated again from its new n, with the weight the
+      // row was scored with, as Algorithm 1 applies one gradient per entry.
+      const repeated = k > start && index[k] === index[k - 1];
       for (let h = 0; h < hb; h++) {
         const g = grad[h] * x;
         const i = base + h;
         const n0 = n[i];
         const n1 = n0 + g * g;
-        // sqrt of the current n, not the scored one: an index that appears twice
-        // in a row (a hash collision) is updated again from its new n, with the
-        // weight the row was scored with, as Algorithm 1 applies one gradient
-        // per entry. Elsewhere it is the scored root, bit for bit.
-        z[i] += g - (Math.sqrt(n1) - Math.sqrt(n0)) * invAlpha * wScratch[o + h];
+        const s0 = repeated ? Math.sqrt(n0) : sScratch[o + h];
+        z[i] += g - (Math.sqrt(n1) - s0) * invAlpha * wScratch[o + h];
         n[i] = n1;
       }
     }

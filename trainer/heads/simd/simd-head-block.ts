@@ -1,7 +1,7 @@
 import { COORDINATE_PAGE_SHIFT, type HeadState } from "../head-state.js";
 import { STAT_FIELDS } from "../progressive-stats.js";
 import { sharedFloat64 } from "../shared-float64.js";
-import { MAX_KERNEL_PAIRS, VALUES_PER_LANE } from "./ftrl-kernel-wat.js";
+import { MAX_KERNEL_PAIRS } from "./ftrl-kernel-wat.js";
 
 const PAGE = 65536;
 /** WebAssembly memory is addressed with 32 bits: 4 GiB, less room for the kernel's scratch space. */
@@ -10,10 +10,10 @@ const MAX_STATE_BYTES = 4 * 1024 ** 3 - 256 * 1024 ** 2;
 /**
  * Heads trained by the WebAssembly kernel (ftrl-kernel-wat.ts): their z and n in
  * a shared WebAssembly memory, laid out for it. Per coordinate c, at byte
- * c * lanes * 24: the block's `lanes` z values, `lanes` n values and `lanes`
- * sqrt(n) values, so one to three cache lines hold all of a coordinate's state
- * (hashed coordinates are cache misses). `lanes` is the head count rounded up
- * to even; a padding head stays 0. At `pagesAt` follows one byte per page of 2^COORDINATE_PAGE_SHIFT
+ * c * lanes * 16: the block's `lanes` z values, then its `lanes` n values, so one
+ * or two cache lines hold all of a coordinate's state (hashed coordinates are
+ * cache misses). `lanes` is the head count rounded up to even; a padding head
+ * stays 0. At `pagesAt` follows one byte per page of 2^COORDINATE_PAGE_SHIFT
  * coordinates, set by the kernel when it updates one of them (cleared by the
  * merge), then from `scratchAt` the kernel's scratch space. The sums are
  * [slot][heads][STAT_FIELDS], this block's heads only.
@@ -32,7 +32,7 @@ export interface SimdHeadBlock {
 
 /** Bytes of z and n for `heads` heads over `coordinates` coordinates, or Infinity past the limit. */
 export function simdStateBytes(coordinates: number, heads: number): number {
-  const bytes = coordinates * lanesFor(heads) * 8 * VALUES_PER_LANE;
+  const bytes = coordinates * lanesFor(heads) * 16;
   return heads > 2 * MAX_KERNEL_PAIRS || bytes > MAX_STATE_BYTES ? Infinity : bytes;
 }
 
@@ -70,18 +70,16 @@ export function createSimdHeadBlock(state: HeadState, first: number, count: numb
     maximum: 65536,
     shared: true,
   });
-  const f64 = new Float64Array(memory.buffer, 0, coordinates * lanes * VALUES_PER_LANE);
-  // The memory starts zeroed (and sqrt(0) = 0): only pages the state has written need copying.
+  const f64 = new Float64Array(memory.buffer, 0, coordinates * lanes * 2);
+  // The memory starts zeroed: only pages the state has written need copying.
   const heads = state.headCount;
   forEachPage(state.writtenPages, coordinates, (from, to) => {
     for (let c = from; c < to; c++) {
-      const block = c * lanes * VALUES_PER_LANE;
+      const block = c * lanes * 2;
       const at = c * heads + first;
       for (let h = 0; h < count; h++) {
-        const n = state.n[at + h];
         f64[block + h] = state.z[at + h];
-        f64[block + lanes + h] = n;
-        f64[block + 2 * lanes + h] = Math.sqrt(n);
+        f64[block + lanes + h] = state.n[at + h];
       }
     }
   });
@@ -121,11 +119,11 @@ export function mergeSimdHeadBlock(state: HeadState, block: SimdHeadBlock): void
   const count = block.heads.length;
   const first = block.heads[0];
   const heads = state.headCount;
-  const f64 = new Float64Array(block.memory.buffer, 0, coordinates * lanes * VALUES_PER_LANE);
+  const f64 = new Float64Array(block.memory.buffer, 0, coordinates * lanes * 2);
   const marks = new Uint8Array(block.memory.buffer, block.pagesAt, state.writtenPages.length);
   forEachPage(marks, coordinates, (from, to) => {
     for (let c = from; c < to; c++) {
-      const at = c * lanes * VALUES_PER_LANE;
+      const at = c * lanes * 2;
       const into = c * heads + first;
       for (let h = 0; h < count; h++) {
         state.z[into + h] = f64[at + h];

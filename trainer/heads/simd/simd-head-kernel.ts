@@ -93,8 +93,10 @@ export class SimdHeadKernel {
     const grad = scratchAt;
     const logit = grad + align(lanes * 8);
     const biasW = logit + align(lanes * 8);
-    const weights = biasW + align(lanes * 8);
-    const indexAt = weights + align(rowBytes);
+    const biasS = biasW + align(lanes * 8);
+    const weights = biasS + align(lanes * 8);
+    const roots = weights + align(rowBytes);
+    const indexAt = roots + align(rowBytes);
     const valueAt = indexAt + align(entries * 4);
     const end = valueAt + (hasValues ? entries * 8 : 0);
     const have = memory.buffer.byteLength;
@@ -118,13 +120,17 @@ export class SimdHeadKernel {
     this.grad.fill(0);
     const { alpha, beta, lambda1, lambda2 } = this.rule;
     this.configure(
+      0,
+      lanes,
       indexAt,
       valueAt,
       hasValues ? 1 : 0,
       weights,
+      roots,
       logit,
       grad,
       biasW,
+      biasS,
       pagesAt,
       1 / alpha,
       beta,
