@@ -8,11 +8,10 @@ import { testRandom } from "./tree-test-helpers.js";
 // Small hand-checked cases of the kernels; expected values are worked out by hand
 // in the comments.
 describe("tree kernels", () => {
-  it("partitionRows is a stable partition that carries rows, gradient pairs and bins along", () => {
+  it("partitionRows is a stable partition that carries gradient pairs and bins along", () => {
     // Bins [3, 0, 7, 1] in one column at positions 1 .. 4 (stride 4: one word per row);
     // bins above 2 go right, so by hand: left rows 1, 3 (bins 0, 1), right rows 0, 2 (bins 3, 7).
     const table = new Uint8Array(512).fill(1, 256 + 3, 512);
-    const rows = Uint32Array.of(9, 0, 1, 2, 3);
     const ordered = Float64Array.of(-1, -1, 0, 0.5, 1, 1.5, 2, 2.5, 3, 3.5);
     const words = Uint32Array.of(99, 3, 0, 7, 1);
     const placed = new Uint8Array(words.buffer);
@@ -20,26 +19,29 @@ describe("tree kernels", () => {
       placed,
       words,
       4,
-      rows,
       ordered,
       1,
       5,
       0,
       table,
       256,
-      new Uint32Array(4),
       new Float64Array(8),
       new Uint32Array(4),
     );
     expect(left).toBe(2);
-    expect(Array.from(rows)).toEqual([9, 1, 3, 0, 2]); // position 0 is outside the segment
+    // Position 0 is outside the segment; row k's pair is (k, k + 0.5).
     expect(Array.from(ordered)).toEqual([-1, -1, 1, 1.5, 3, 3.5, 0, 0.5, 2, 2.5]);
     expect(Array.from(words)).toEqual([99, 0, 1, 3, 7]);
   });
 
-  // 3 columns use the general loop (stride 4), 8 columns the two-word loop (stride 8).
-  for (const columns of [3, 8]) {
-    it(`partitionRows keeps every row once, with its own bins, on random data (${columns} columns)`, () => {
+  // 3 columns use the general loop (stride 4), 8 columns the two-word loop (stride 8),
+  // which reads the split column's bin out of the first word (columns 0 .. 3) or the second.
+  for (const [columns, column] of [
+    [3, 2],
+    [8, 1],
+    [8, 7],
+  ]) {
+    it(`partitionRows keeps every row once, with its own bins, on random data (${columns} columns, split on ${column})`, () => {
       const random = testRandom(columns);
       const n = 5000;
       const stride = 4 * Math.ceil(columns / 4);
@@ -49,21 +51,18 @@ describe("tree kernels", () => {
       for (let r = 0; r < n; r++)
         placed.set(bins.subarray(r * columns, (r + 1) * columns), r * stride);
       const table = Uint8Array.from({ length: 256 }, (_, b) => (b % 3 === 0 ? 1 : 0));
-      const rows = Uint32Array.from({ length: n }, (_, i) => i);
+      // Each position's pair names its row: (r, r).
       const ordered = Float64Array.from({ length: 2 * n }, (_, k) => Math.floor(k / 2));
-      const column = columns - 1;
       const left = partitionRows(
         placed,
         words,
         stride,
-        rows,
         ordered,
         0,
         n,
         column,
         table,
         0,
-        new Uint32Array(n),
         new Float64Array(2 * n),
         new Uint32Array((n * stride) / 4),
       );
@@ -73,9 +72,10 @@ describe("tree kernels", () => {
         ...Array.from({ length: n }, (_, r) => r).filter(goesRight),
       ];
       expect(left).toBe(expected.findIndex(goesRight));
-      expect(Array.from(rows)).toEqual(expected);
+      const rows = Array.from({ length: n }, (_, i) => ordered[2 * i]);
+      expect(rows).toEqual(expected);
       for (let i = 0; i < n; i++) {
-        expect(ordered[2 * i]).toBe(rows[i]);
+        expect(ordered[2 * i + 1]).toBe(rows[i]);
         for (let c = 0; c < columns; c++)
           expect(placed[i * stride + c]).toBe(bins[rows[i] * columns + c]);
       }

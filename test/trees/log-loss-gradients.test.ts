@@ -61,6 +61,22 @@ describe("logLossGradients", () => {
     expect(sums[1]).toBe(n);
   });
 
+  // Confident, correct rows: loss log1p(exp(-|s|)) is far below one ulp of 1, so
+  // it must not come out of a rounded 1 + e. Relative tolerance 1e-14 against
+  // Math.log1p(Math.exp(-s)).
+  it("keeps the digits of losses near zero", () => {
+    const score = Float64Array.of(20, 40, 300, -25);
+    const label = Uint8Array.of(1, 1, 1, 0);
+    const sums = new Float64Array(4);
+    logLossGradients(score, label, null, null, new Float64Array(8), -1, 0, 4, sums, 0);
+    const expected = Array.from(score).reduce(
+      (sum, s) => sum + Math.log1p(Math.exp(-Math.abs(s))),
+      0,
+    );
+    expect(expected).toBeGreaterThan(0);
+    expect(Math.abs(sums[0] - expected)).toBeLessThan(1e-14 * expected);
+  });
+
   it("packs the training rows' pairs from a position, skipping validation rows", () => {
     const out = new Float64Array(8).fill(9);
     const sums = new Float64Array(4);

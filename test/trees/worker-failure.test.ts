@@ -13,27 +13,31 @@ describe("tree worker threads", () => {
     blockRows: 64,
     hasWeight: false,
     hasValidation: false,
-    sampleRows: false,
+    sampleRows: true,
     maxDepth: 2,
     histogramBlocks: 2,
     segments: 4,
-    lossBlocks: 1,
+    lossBlocks: 2,
   });
 
   it("run a round on two workers", async () => {
     const pool = new TreeTaskPool(buffers, 2);
     try {
+      // Scores 0 and labels 1 then 0: gradients p - y = -0.5 and 0.5, hessians 0.25.
       buffers.score.fill(0);
-      buffers.rows.forEach((_, i) => (buffers.rows[i] = i));
-      buffers.nodeValue.set([0.5, 0.25]);
+      buffers.label.fill(1, 0, 50);
+      buffers.label.fill(0, 50, 100);
       const tasks = new TaskList();
-      tasks.add(50, 0, 50, 0); // rows 0 .. 49 get node 0's value
-      tasks.add(50, 50, 100, 1);
-      await pool.run(TreeTaskOp.addLeaf, tasks.ints());
-      expect(Array.from(buffers.score)).toEqual([
-        ...new Array<number>(50).fill(0.5),
-        ...new Array<number>(50).fill(0.25),
+      tasks.add(50, 0, 50, 0, -1, -1, -1); // rows 0 .. 49 into loss slot 0, by row
+      tasks.add(50, 50, 100, 1, -1, -1, -1);
+      await pool.run(TreeTaskOp.gradients, tasks.ints());
+      expect(Array.from(buffers.gradHess)).toEqual([
+        ...new Array<number[]>(50).fill([-0.5, 0.25]).flat(),
+        ...new Array<number[]>(50).fill([0.5, 0.25]).flat(),
       ]);
+      // Both slots: 50 rows of loss log 2 each (the logistic loss at p = 1/2).
+      expect(Math.abs(buffers.sums[0] - 50 * Math.LN2)).toBeLessThan(1e-12);
+      expect(Math.abs(buffers.sums[4] - 50 * Math.LN2)).toBeLessThan(1e-12);
     } finally {
       await pool.close();
     }
@@ -49,7 +53,7 @@ describe("tree worker threads", () => {
       await expect(round).rejects.toThrow(
         /trees: worker thread \d failed: Error: trees: unknown task op 99/,
       );
-      await expect(pool.run(TreeTaskOp.addLeaf, tasks.ints())).rejects.toThrow(/worker thread/);
+      await expect(pool.run(TreeTaskOp.gradients, tasks.ints())).rejects.toThrow(/worker thread/);
     } finally {
       await pool.close();
     }

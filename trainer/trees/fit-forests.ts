@@ -119,7 +119,6 @@ export async function fitForests(
   const timestamp = options.timestamp ?? null;
   const validation = chooseValidationRows(n, settings.validationFraction, timestamp, options.seed);
   const trainRows = rowsWhere(validation, 0, n);
-  const validRows = rowsWhere(validation, 1, n);
   const weight = options.weight ?? null;
   const positions = trainPositions(validation, n);
 
@@ -144,7 +143,6 @@ export async function fitForests(
   });
   if (buffers.weight !== null && weight !== null) buffers.weight.set(weight);
   if (buffers.validation !== null && validation !== null) buffers.validation.set(validation);
-  buffers.otherRows.set(validRows);
 
   const pool = new TreeTaskPool(buffers, options.workers);
   const layout = {
@@ -188,7 +186,6 @@ export async function fitForests(
         grower,
         settings,
         trainRows,
-        validRows,
         validation,
         weight,
         positions: settings.rowFraction < 1 ? null : positions,

@@ -1,5 +1,4 @@
 import type { ForestModel } from "../../scorer/model-types.js";
-import { applyTreeToScores } from "./apply-tree-to-scores.js";
 import { baseLogit } from "./base-logit.js";
 import type { BinnedFeatures } from "./binned-features.js";
 import { chooseColumns } from "./choose-columns.js";
@@ -26,7 +25,6 @@ export interface ForestRun {
   readonly grower: TreeGrower;
   readonly settings: ForestSettings;
   readonly trainRows: Uint32Array;
-  readonly validRows: Uint32Array;
   /** 1 for validation rows; null without a validation set. */
   readonly validation: Uint8Array | null;
   readonly weight: Float64Array | null;
@@ -88,7 +86,7 @@ export async function fitOneForest(
   let start: { train: number; validation: number };
   if (resume === null) {
     buffers.score.fill(base);
-    start = await gradientRound(pool, buffers, n, run.positions);
+    start = await gradientRound(pool, buffers, n, run.positions, -1);
   } else {
     start = { train: resume.startTrainLoss, validation: resume.startValidationLoss ?? NaN };
     resume.trees.forEach((tree, t) => {
@@ -105,7 +103,7 @@ export async function fitOneForest(
     }
     if (!resume.complete) {
       // Gradients for the next tree; the loss must be the one saved after the last tree.
-      const loss = await gradientRound(pool, buffers, n, run.positions);
+      const loss = await gradientRound(pool, buffers, n, run.positions, -1);
       const last = grown.length - 1;
       const saved =
         last < 0 ? start : { train: trainLoss[last], validation: validationLoss?.[last] ?? NaN };
@@ -138,20 +136,13 @@ export async function fitOneForest(
     let rootCount = run.trainRows.length;
     // With every training row in the tree, the gradient round has placed them already.
     if (run.positions === null) {
-      rootCount = placeTreeRows(
-        buffers,
-        run.trainRows,
-        run.validRows.length,
-        settings.rowFraction,
-        treeRandom,
-      );
+      rootCount = placeTreeRows(buffers, run.trainRows, settings.rowFraction, treeRandom);
       await placeRows(pool, rootCount, buffers.blockRows);
     }
     const allowed = chooseColumns(binned.columnCount, settings.featureFraction, treeRandom);
-    const { tree, leaves } = await grower.grow(rootCount, allowed);
-    const otherCount = run.validRows.length + run.trainRows.length - rootCount;
-    await applyTreeToScores(pool, buffers, tree, leaves, otherCount);
-    const loss = await gradientRound(pool, buffers, n, run.positions);
+    const tree = await grower.grow(rootCount, allowed);
+    // Adds the tree to every row's score, then the next tree's gradients.
+    const loss = await gradientRound(pool, buffers, n, run.positions, tree.depth);
     grown.push(tree);
     const before = bestCount;
     stopped = record(t, loss.train, loss.validation);

@@ -33,8 +33,10 @@ export function trainPositions(validation: Uint8Array | null, n: number): Int32A
 }
 
 /**
- * Computes every row's gradient and hessian for the next tree from the current
- * scores, and returns the weighted mean log loss of the training and validation
+ * Adds the tree just grown to every row's score (with `treeDepth` >= 0: the
+ * tree in buffers.nodeColumn, goesRight and leafValue, see addTreeToScores; -1
+ * when the scores are already current), computes every row's gradient and
+ * hessian for the next tree from the new scores, and returns the weighted mean log loss of the training and validation
  * rows under those scores (NaN for a side without weight). With `positions`
  * (trainPositions) the training rows' pairs go straight to buffers.ordered in
  * row order, which is where a tree on all training rows reads them, and each
@@ -46,13 +48,14 @@ export function trainPositions(validation: Uint8Array | null, n: number): Int32A
  * number of workers.
  *
  * @example
- * const { train, validation } = await gradientRound(pool, buffers, binned.rowCount, positions);
+ * const { train, validation } = await gradientRound(pool, buffers, binned.rowCount, positions, tree.depth);
  */
 export async function gradientRound(
   pool: TreeTaskPool,
   buffers: TrainingBuffers,
   n: number,
   positions: Int32Array | null,
+  treeDepth: number,
 ): Promise<{ train: number; validation: number }> {
   const tasks = new TaskList();
   const blocks = lossBlocks(n);
@@ -63,7 +66,8 @@ export async function gradientRound(
   for (let s = 0; s < n; s += LOSS_BLOCK_ROWS) {
     const end = Math.min(s + LOSS_BLOCK_ROWS, n);
     const k = tasks.length;
-    tasks.add(end - s, s, end, k, positions === null ? -1 : positions[k], withRoot ? k : -1);
+    const position = positions === null ? -1 : positions[k];
+    tasks.add(end - s, s, end, k, position, withRoot ? k : -1, treeDepth);
   }
   buffers.rootHistBlocks[0] = 0;
   await pool.run(TreeTaskOp.gradients, tasks.ints());

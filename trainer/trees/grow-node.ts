@@ -1,6 +1,6 @@
 /**
- * A node while its tree grows: its rows as [start, end) segments of
- * buffers.rows (in order), their gradient and hessian sums, and its histogram
+ * A node while its tree grows: its rows as [start, end) segments of positions
+ * (in order; see buffers.placed), their gradient and hessian sums, and its histogram
  * once built (null for nodes that will not split).
  */
 export interface GrowNode {
@@ -12,15 +12,4 @@ export interface GrowNode {
   readonly gradient: number;
   readonly hessian: number;
   hist: Float64Array | null;
-}
-
-/**
- * Rows that end in leaves, as segments of buffers.rows: a leaf's own rows
- * (column -1; value nodeValue[node]), or the rows of a split node whose two
- * children are leaves (its split column; values of nodes 2 node + 1, 2 node + 2).
- */
-export interface LeafRange {
-  readonly segments: readonly number[];
-  readonly node: number;
-  readonly column: number;
 }

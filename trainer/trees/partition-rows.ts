@@ -3,10 +3,12 @@
  * in `column` has a 0 in the node's 256-entry table `goesRight` (from tableBase)
  * come first, the others after them, each side in its old order (stable, so a
  * block of rows always sums the same way). Everything kept by position moves
- * with its row: the row index in `rows`, the gradient pair in `ordered`
- * (position i at 2i, 2i + 1) and the row's bins in `placed` (position i at
- * i * stride bytes, moved as `words`, stride / 4 words per row), so that a
- * child's histogram and its next partition read memory sequentially.
+ * with its row: the gradient pair in `ordered` (position i at 2i, 2i + 1) and
+ * the row's bins in `placed` (position i at i * stride bytes, moved as `words`,
+ * stride / 4 words per row), so that a child's histogram and its next partition
+ * read memory sequentially. Row indexes do not travel: scores are updated by
+ * sending rows down the finished tree in row order (addTreeToScores), which
+ * made each partition move 24 bytes per row instead of 28.
  * Returns the number of left rows.
  *
  * Branchless: every row is written both at the left cursor (which never passes
@@ -20,24 +22,20 @@
  * const table = new Uint8Array(256).fill(1, 3);
  * const words = Uint32Array.of(3, 0, 7, 1);
  * const placed = new Uint8Array(words.buffer);
- * const rows = Uint32Array.of(0, 1, 2, 3);
  * const ordered = Float64Array.of(0, 0, 1, 1, 2, 2, 3, 3);
- * partitionRows(placed, words, 4, rows, ordered, 0, 4, 0, table, 0,
- *   new Uint32Array(4), new Float64Array(8), new Uint32Array(4));
- * // 2, rows = [1, 3, 0, 2], ordered = [1, 1, 3, 3, 0, 0, 2, 2], words = [0, 1, 3, 7]
+ * partitionRows(placed, words, 4, ordered, 0, 4, 0, table, 0, new Float64Array(8), new Uint32Array(4));
+ * // 2, ordered = [1, 1, 3, 3, 0, 0, 2, 2], words = [0, 1, 3, 7]
  */
 export function partitionRows(
   placed: Uint8Array,
   words: Uint32Array,
   stride: number,
-  rows: Uint32Array,
   ordered: Float64Array,
   start: number,
   end: number,
   column: number,
   goesRight: Uint8Array,
   tableBase: number,
-  rowScratch: Uint32Array,
   gradScratch: Float64Array,
   wordScratch: Uint32Array,
 ): number {
@@ -45,20 +43,17 @@ export function partitionRows(
     placed,
     words,
     stride,
-    rows,
     ordered,
     start,
     end,
     column,
     goesRight,
     tableBase,
-    rowScratch,
     gradScratch,
     wordScratch,
   );
   const right = end - left;
   const w = stride >> 2;
-  rows.set(rowScratch.subarray(0, right), left);
   ordered.set(gradScratch.subarray(0, 2 * right), 2 * left);
   words.set(wordScratch.subarray(0, w * right), w * left);
   return left - start;
@@ -75,35 +70,34 @@ function splitSegment(
   placed: Uint8Array,
   words: Uint32Array,
   stride: number,
-  rows: Uint32Array,
   ordered: Float64Array,
   start: number,
   end: number,
   column: number,
   goesRight: Uint8Array,
   tableBase: number,
-  rowScratch: Uint32Array,
   gradScratch: Float64Array,
   wordScratch: Uint32Array,
 ): number {
   const w = stride >> 2;
   let left = start;
   let right = 0;
-  if (w === 2) {
-    // Eight columns or fewer: two words per row, unrolled.
+  if (w === 2 && LITTLE_ENDIAN) {
+    // Eight columns or fewer: two words per row, unrolled, and the split column's bin
+    // taken out of the word already loaded (byte k of a word is column 4 word + k on a
+    // little-endian machine): about 10 % faster than reading the byte again in a probe here.
+    const high = column >= 4;
+    const shift = 8 * (column & 3);
     for (let i = start; i < end; i++) {
-      const r = rows[i];
       const g = ordered[2 * i];
       const h = ordered[2 * i + 1];
       const a = words[2 * i];
       const b = words[2 * i + 1];
-      const toRight = goesRight[tableBase + placed[i * 8 + column]];
-      rows[left] = r;
+      const toRight = goesRight[tableBase + (((high ? b : a) >>> shift) & 255)];
       ordered[2 * left] = g;
       ordered[2 * left + 1] = h;
       words[2 * left] = a;
       words[2 * left + 1] = b;
-      rowScratch[right] = r;
       gradScratch[2 * right] = g;
       gradScratch[2 * right + 1] = h;
       wordScratch[2 * right] = a;
@@ -113,14 +107,11 @@ function splitSegment(
     }
   } else {
     for (let i = start; i < end; i++) {
-      const r = rows[i];
       const g = ordered[2 * i];
       const h = ordered[2 * i + 1];
       const toRight = goesRight[tableBase + placed[i * stride + column]];
-      rows[left] = r;
       ordered[2 * left] = g;
       ordered[2 * left + 1] = h;
-      rowScratch[right] = r;
       gradScratch[2 * right] = g;
       gradScratch[2 * right + 1] = h;
       for (let k = 0; k < w; k++) {
@@ -134,3 +125,6 @@ function splitSegment(
   }
   return left;
 }
+
+/** Whether typed arrays are little-endian here (they are on x64 and arm64). */
+const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;

@@ -1,16 +1,15 @@
 import type { BinnedFeatures } from "./binned-features.js";
 import { writeSplitTable } from "./find-best-split.js";
 import type { GrownTree } from "./grown-tree.js";
-import { addTreeByTraversal } from "./score-kernels.js";
+import { addTreeToScores } from "./add-tree-to-scores.js";
 import { damagedCheckpointError } from "../io/damaged-checkpoint-error.js";
 
 const NO_CHILD = { gradient: 0, hessian: 0, count: 0 };
 
 /**
  * The raw scores of every binned row under a checkpoint's trees: `base` plus
- * each tree's leaf value, added in tree order. Fitting added exactly these
- * values in exactly this order (one addition per row and tree, whether the row
- * was in the tree's sample or scored by traversal), so the scores come back
+ * each tree's leaf value, added in tree order by the kernel fitting uses
+ * (addTreeToScores: one addition per row and tree), so the scores come back
  * bit for bit and fitting continues as if it had never stopped. The trees are
  * checked against the binned layout first: a damaged checkpoint must not read
  * outside the arrays.
@@ -26,8 +25,6 @@ export function rebuildCheckpointScores(
 ): void {
   const n = binned.rowCount;
   score.fill(base, 0, n);
-  const rows = new Uint32Array(n);
-  for (let r = 0; r < n; r++) rows[r] = r;
   trees.forEach((tree, t) => {
     const internal = 2 ** tree.depth - 1;
     const goesRight = new Uint8Array(256 * Math.max(1, internal));
@@ -66,10 +63,9 @@ export function rebuildCheckpointScores(
       const position = leaf.node - (2 ** leaf.depth - 1);
       leafValue[position * 2 ** (tree.depth - leaf.depth)] = leaf.value;
     }
-    addTreeByTraversal(
+    addTreeToScores(
       binned.bins,
       binned.columnCount,
-      rows,
       0,
       n,
       tree.depth,

@@ -1,7 +1,7 @@
+import { addTreeToScores } from "./add-tree-to-scores.js";
 import { accumulateHistogram } from "./histogram-kernel.js";
 import { logLossGradients } from "./log-loss-gradients.js";
 import { partitionRows } from "./partition-rows.js";
-import { addLeafValue, addSplitValues, addTreeByTraversal } from "./score-kernels.js";
 import type { TrainingBuffers } from "./training-buffers.js";
 import { TreeTaskOp } from "./tree-task-op.js";
 
@@ -18,7 +18,7 @@ import { TreeTaskOp } from "./tree-task-op.js";
  * memory, so who runs which never changes a bit of the result.
  *
  * @example
- * runTreeTasks(buffers, TreeTaskOp.gradients, Int32Array.of(5, 1000, 0, 1000, 0, -1, -1), createTaskScratch(buffers));
+ * runTreeTasks(buffers, TreeTaskOp.gradients, Int32Array.of(6, 1000, 0, 1000, 0, -1, -1, -1), createTaskScratch(buffers));
  */
 export function runTreeTasks(
   b: TrainingBuffers,
@@ -61,49 +61,50 @@ function runTreeTask(
   const at = f + size;
   switch (op) {
     case TreeTaskOp.gradients: {
-      // [start, end, sumsSlot, position, histSlot]
+      // [start, end, sumsSlot, position, histSlot, treeDepth]
       const slot = 4 * ints[f + 2];
       b.sums.fill(0, slot, slot + 4);
       const position = ints[f + 3];
-      if (position < 0) {
-        logLossGradients(
-          b.score,
-          b.label,
-          b.weight,
-          b.validation,
-          b.gradHess,
-          -1,
-          ints[f],
-          ints[f + 1],
-          b.sums,
-          slot,
-        );
-        break;
-      }
       const histSlot = ints[f + 4];
+      const depth = ints[f + 5];
       const hist =
         histSlot < 0
           ? null
           : b.blockHist.subarray(b.histSize * histSlot, b.histSize * (histSlot + 1));
       if (hist !== null) hist.fill(0);
-      // In pieces that stay in cache: gradients, then the rows' bins, then (with a
-      // histogram slot) the next tree's root histogram over the pairs just written.
+      // In pieces that stay in cache: the last tree's leaf values, the gradients from
+      // the new scores, then (packed) the rows' bins and, with a histogram slot, the
+      // next tree's root histogram over the pairs just written.
       let packed = position;
       for (let s = ints[f]; s < ints[f + 1]; s += GRADIENT_PIECE_ROWS) {
         const e = Math.min(s + GRADIENT_PIECE_ROWS, ints[f + 1]);
+        if (depth >= 0) {
+          addTreeToScores(
+            b.bins,
+            b.columnCount,
+            s,
+            e,
+            depth,
+            b.nodeColumn,
+            b.goesRight,
+            b.leafValue,
+            b.score,
+          );
+        }
         const from = packed;
         packed = logLossGradients(
           b.score,
           b.label,
           b.weight,
           b.validation,
-          b.ordered,
+          position < 0 ? b.gradHess : b.ordered,
           packed,
           s,
           e,
           b.sums,
           slot,
         );
+        if (position < 0) continue;
         packTrainingRows(b, scratch.binWords, s, e, from);
         if (hist !== null) {
           accumulateHistogram(
@@ -134,14 +135,12 @@ function runTreeTask(
           b.placed,
           b.placedWords,
           b.placedStride,
-          b.rows,
           b.ordered,
           start,
           end,
           ints[f + 2],
           b.goesRight,
           256 * ints[f + 3],
-          scratch.rows,
           scratch.gradients,
           scratch.words,
         );
@@ -172,38 +171,6 @@ function runTreeTask(
       }
       break;
     }
-    case TreeTaskOp.addLeaf:
-      if (size === 3) {
-        addLeafValue(b.rows, ints[f], ints[f + 1], b.score, b.nodeValue[ints[f + 2]]);
-      } else {
-        addSplitValues(
-          b.placed,
-          b.placedStride,
-          b.rows,
-          ints[f],
-          ints[f + 1],
-          ints[f + 3],
-          ints[f + 2],
-          b.goesRight,
-          b.nodeValue,
-          b.score,
-        );
-      }
-      break;
-    case TreeTaskOp.traverse:
-      addTreeByTraversal(
-        b.bins,
-        b.columnCount,
-        b.otherRows,
-        ints[f],
-        ints[f + 1],
-        ints[f + 2],
-        b.nodeColumn,
-        b.goesRight,
-        b.leafValue,
-        b.score,
-      );
-      break;
     case TreeTaskOp.place:
       placeRows(b, scratch.binWords, ints[f], ints[f + 1], ints[f + 2] === 1);
       break;
@@ -212,9 +179,8 @@ function runTreeTask(
   }
 }
 
-/** A thread's own partition buffers (rows, gradient pairs and placed bins of one segment). */
+/** A thread's own partition buffers (gradient pairs and placed bins of one segment). */
 export interface TaskScratch {
-  readonly rows: Uint32Array;
   readonly gradients: Float64Array;
   readonly words: Uint32Array;
   /** buffers.bins as 32-bit words when its rows are whole words (a view, not a copy). */
@@ -231,7 +197,6 @@ export function createTaskScratch(buffers: TrainingBuffers): TaskScratch {
   const bins = buffers.bins;
   const wordRows = buffers.columnCount % 4 === 0 && bins.byteOffset % 4 === 0;
   return {
-    rows: new Uint32Array(buffers.blockRows),
     gradients: new Float64Array(2 * buffers.blockRows),
     words: new Uint32Array((buffers.blockRows * buffers.placedStride) / 4),
     binWords: wordRows ? new Uint32Array(bins.buffer, bins.byteOffset, bins.length >> 2) : null,
@@ -239,9 +204,9 @@ export function createTaskScratch(buffers: TrainingBuffers): TaskScratch {
 }
 
 /**
- * Writes the training rows among start .. end - 1, in row order, to b.rows and
- * their bins to b.placed from `position` on: the next tree's root, whose gradient
- * pairs logLossGradients has just packed to the same positions. Kernel.
+ * Writes the bins of the training rows among start .. end - 1, in row order, to
+ * b.placed from `position` on: the next tree's root, whose gradient pairs
+ * logLossGradients has just packed to the same positions. Kernel.
  */
 function packTrainingRows(
   b: TrainingBuffers,
@@ -250,18 +215,16 @@ function packTrainingRows(
   end: number,
   position: number,
 ): void {
-  const { rows, bins, placed, placedWords, columnCount, placedStride, validation } = b;
-  let p = position;
+  const { bins, placed, placedWords, columnCount, placedStride, validation } = b;
   if (validation === null && binWords !== null) {
     // Every row trains and rows are whole words: copy the block as it is.
     const w = columnCount >> 2;
-    placedWords.set(binWords.subarray(start * w, end * w), p * w);
-    for (let r = start; r < end; r++) rows[p++] = r;
+    placedWords.set(binWords.subarray(start * w, end * w), position * w);
     return;
   }
+  let p = position;
   for (let r = start; r < end; r++) {
     if (validation !== null && validation[r] === 1) continue;
-    rows[p] = r;
     const from = r * columnCount;
     const to = p * placedStride;
     for (let c = 0; c < columnCount; c++) placed[to + c] = bins[from + c];

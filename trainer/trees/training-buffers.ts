@@ -10,7 +10,7 @@ export interface TrainingBuffers {
   readonly bins: Uint8Array;
   readonly columnCount: number;
   /**
-   * The bins again, by position in `rows`: position i's row at i * placedStride, moved
+   * The bins again, by position: position i's row at i * placedStride, moved
    * along by every partition, so a node's rows are contiguous bytes and histograms
    * and partitions read them sequentially (a deep node's rows scattered over the
    * row-major matrix cost 7 to 8 times more per row in a probe here). One copy for
@@ -29,28 +29,30 @@ export interface TrainingBuffers {
   readonly score: Float64Array;
   /**
    * Per row r: gradient at 2r, hessian at 2r + 1; only for trees on a row sample
-   * (empty otherwise: the gradient round then writes `ordered`, `rows` and `placed` directly).
+   * (empty otherwise: the gradient round then writes `ordered` and `placed` directly).
    */
   readonly gradHess: Float64Array;
-  /** The same pairs by position in `rows` (position i at 2i), moved along by every partition. */
+  /** The same pairs by position (position i at 2i, as in `placed`), moved along by every partition. */
   readonly ordered: Float64Array;
   /** Labels of the outcome being fitted (rewritten per forest). */
   readonly label: Uint8Array;
   readonly weight: Float64Array | null;
   /** 1 for validation rows, null without a validation set. */
   readonly validation: Uint8Array | null;
-  /** The current tree's rows, partitioned in place segment by segment as nodes split. */
+  /**
+   * A row sample's rows, ascending, for placing their bins and gradient pairs
+   * (TreeTaskOp.place); empty when trees use every training row.
+   */
   readonly rows: Uint32Array;
-  /** Rows outside the current tree's sample (validation and unsampled rows), scored by traversal. */
-  readonly otherRows: Uint32Array;
   /** Per internal node of the current tree: 256 bytes, 1 where that bin goes right. */
   readonly goesRight: Uint8Array;
   /** Per internal node of the current tree: its split column (0 for pass-through nodes). */
   readonly nodeColumn: Int32Array;
-  /** Per leaf of the current tree at its own depth: the leaf value. */
+  /**
+   * Per leaf position of the current tree at its depth: the leaf value (a leaf
+   * above that depth at the leftmost position below it); see addTreeToScores.
+   */
   readonly leafValue: Float64Array;
-  /** Per node of the current tree (implicit layout, 2^(depth + 1) - 1 nodes): its leaf value. */
-  readonly nodeValue: Float64Array;
   /** Block histograms of one round, histSize numbers each. */
   readonly blockHist: Float64Array;
   /**
@@ -93,6 +95,7 @@ export function createTrainingBuffers(
   const histSize = SLOT_VALUES * COLUMN_SLOTS * sizes.columnCount;
   const internal = 2 ** sizes.maxDepth - 1;
   const placedStride = 4 * Math.ceil(sizes.columnCount / 4);
+  const rowsLength = sizes.sampleRows ? n : 0;
   const placedBuffer = new SharedArrayBuffer(Math.max(4, n * placedStride));
   return {
     bins,
@@ -108,12 +111,10 @@ export function createTrainingBuffers(
     label: sharedBytes(n),
     weight: sizes.hasWeight ? sharedFloat64(n) : null,
     validation: sizes.hasValidation ? sharedBytes(n) : null,
-    rows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, n)), 0, n),
-    otherRows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, n)), 0, n),
+    rows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, rowsLength)), 0, rowsLength),
     goesRight: sharedBytes(256 * internal),
     nodeColumn: new Int32Array(new SharedArrayBuffer(4 * internal)),
     leafValue: sharedFloat64(internal + 1),
-    nodeValue: sharedFloat64(2 * internal + 1),
     blockHist: sharedFloat64(sizes.histogramBlocks * histSize),
     rootHistBlocks: new Int32Array(new SharedArrayBuffer(4)),
     counts: new Int32Array(new SharedArrayBuffer(4 * Math.max(1, sizes.segments))),

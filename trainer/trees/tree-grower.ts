@@ -5,7 +5,7 @@ import {
   type SplitChoice,
   type SplitRules,
 } from "./find-best-split.js";
-import type { GrowNode, LeafRange } from "./grow-node.js";
+import type { GrowNode } from "./grow-node.js";
 import type { GrownTree } from "./grown-tree.js";
 import { SLOT_VALUES } from "./histogram-kernel.js";
 import { NodeHistograms } from "./node-histograms.js";
@@ -46,14 +46,15 @@ interface TreeArrays {
  * only the one with less hessian gets a histogram from its rows, summed in the
  * same worker pass that partitions the parent (partitionNodes); the other is
  * the parent's minus it (NodeHistograms). Rows move with their bins (buffers.placed),
- * so every node's rows are contiguous memory however deep it is. A split whose two children are final
- * leaves is not partitioned at all: its rows get their leaf values straight from
- * the split when the scores are updated (applyTreeToScores).
+ * so every node's rows are contiguous memory however deep it is. A split whose
+ * two children are final leaves is not partitioned at all: the scores are
+ * updated by sending every row down the finished tree (the split tables and
+ * buffers.leafValue, written here; see addTreeToScores), not by leaf ranges.
  *
  * @example
  * const grower = new TreeGrower(buffers, pool, layout, settings, 64);
- * const { tree, leaves } = await grower.grow(rootRows, null); // rows in buffers.rows[0 .. rootRows)
- * await applyTreeToScores(pool, buffers, tree, leaves, otherRows);
+ * const tree = await grower.grow(rootRows, null); // rows at positions 0 .. rootRows - 1
+ * await gradientRound(pool, buffers, rowCount, positions, tree.depth); // adds it to the scores
  */
 export class TreeGrower {
   private readonly histograms: NodeHistograms;
@@ -70,15 +71,12 @@ export class TreeGrower {
   }
 
   /**
-   * Grows a tree on the rows buffers.rows[0 .. rootCount) (their gradient pairs
-   * at the same positions in buffers.ordered), splitting only `allowed` columns
-   * (null: all). Returns the
-   * tree and where its leaves' rows are (valid until the next grow).
+   * Grows a tree on the rows at positions 0 .. rootCount - 1 (bins in
+   * buffers.placed, gradient pairs in buffers.ordered), splitting only `allowed`
+   * columns (null: all). Leaves the tree in the shared tables (goesRight,
+   * nodeColumn, leafValue) for the next gradient round to add to the scores.
    */
-  async grow(
-    rootCount: number,
-    allowed: Uint8Array | null,
-  ): Promise<{ tree: GrownTree; leaves: LeafRange[] }> {
+  async grow(rootCount: number, allowed: Uint8Array | null): Promise<GrownTree> {
     const { settings, buffers, layout } = this;
     const internal = 2 ** settings.depth - 1;
     const tree: TreeArrays = {
@@ -90,12 +88,10 @@ export class TreeGrower {
       cover: new Float64Array(internal),
     };
     const grownLeaves: { node: number; depth: number; value: number }[] = [];
-    const leafRows: LeafRange[] = [];
     const addLeaf = (node: number, depth: number, gradient: number, hessian: number): void => {
       const d = hessian + settings.l2;
       const value = d > 0 ? (-gradient / d) * settings.learningRate : 0;
       grownLeaves.push({ node, depth, value });
-      buffers.nodeValue[node] = value;
     };
     this.clearTables();
 
@@ -123,7 +119,6 @@ export class TreeGrower {
       for (const node of level) {
         if (splitIds.has(node.id)) continue;
         addLeaf(node.id, node.depth, node.gradient, node.hessian);
-        leafRows.push({ segments: node.segments, node: node.id, column: -1 });
       }
       const partitioned: Split[] = [];
       for (const split of accepted) {
@@ -139,7 +134,6 @@ export class TreeGrower {
         }
         addLeaf(2 * node.id + 1, depth, choice.left.gradient, choice.left.hessian);
         addLeaf(2 * node.id + 2, depth, choice.right.gradient, choice.right.hessian);
-        leafRows.push({ segments: node.segments, node: node.id, column: choice.column });
       }
       const parents = level;
       level = await this.nextLevel(partitioned);
@@ -148,6 +142,12 @@ export class TreeGrower {
     let depth = 0;
     for (const leaf of grownLeaves) depth = Math.max(depth, leaf.depth);
     grownLeaves.sort((a, b) => a.node - b.node);
+    // Leaves above the full depth sit on the leftmost leaf below them; pass-through nodes go left.
+    buffers.leafValue.fill(0, 0, 2 ** depth);
+    for (const leaf of grownLeaves) {
+      const position = leaf.node - (2 ** leaf.depth - 1);
+      buffers.leafValue[position * 2 ** (depth - leaf.depth)] = leaf.value;
+    }
     // Keep only the levels the tree reached: a forest holds many trees.
     const used = 2 ** depth - 1;
     const grown: GrownTree = {
@@ -160,7 +160,7 @@ export class TreeGrower {
       cover: tree.cover.slice(0, used),
       leaves: grownLeaves,
     };
-    return { tree: grown, leaves: leafRows };
+    return grown;
   }
 
   /** The root node with its histogram and gradient totals. */
