@@ -20,6 +20,8 @@ export interface HeldOutFigures {
   readonly calibration: number;
   /** Calibration of the forest alone. */
   readonly treesCalibration: number;
+  /** Calibration of the generator's true probabilities on the same rows: how far label noise alone moves the observed rate. */
+  readonly trueCalibration: number;
 }
 
 /**
@@ -78,12 +80,14 @@ export async function heldOutFigures(
     const y = Uint8Array.from(labels[h]);
     const rate = trainingRate.get(outcome) ?? NaN;
     const q = Float64Array.from(hybrid[h]);
+    const p = Float64Array.from(truth[h]);
     return {
       outcome,
       hybridNe: normalizedEntropy(q, y, rate),
       treesNe: normalizedEntropy(Float64Array.from(trees[h]), y, rate),
       treesCalibration: calibration(Float64Array.from(trees[h]), y),
-      trueNe: normalizedEntropy(Float64Array.from(truth[h]), y, rate),
+      trueNe: normalizedEntropy(p, y, rate),
+      trueCalibration: calibration(p, y),
       calibration: calibration(q, y),
     };
   });
