@@ -1,19 +1,35 @@
 /**
  * Worker-thread entry: owns one block of heads (arrays in shared memory, from
- * workerData) and trains it on each batch the main thread posts, answering
- * `{ ok: true }` or `{ error }` per batch. Started by WorkerHeadRunner.
+ * workerData) and trains it on each batch the main thread posts, or copies its
+ * share of a merge, answering `{ ok: true }` or `{ error }` per message.
+ * Started by WorkerHeadRunner.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { BlockTrainer, type TrainingBlock } from "./block-trainer.js";
 import type { FtrlRule, KernelBatch } from "./head-block.js";
+import { copyMarkedPages, type SimdHeadBlock } from "./simd/simd-head-block.js";
 
 /** What the main thread posts per batch; `sliceStats` replaces the block's when the slices outgrew it. */
-export interface HeadWorkerMessage {
+export interface HeadTrainMessage {
   readonly batch: KernelBatch;
   readonly sliceStats: Float64Array | null;
 }
 
-/** The worker's answer to one batch. */
+/** A share of a merge: copy the marked pages [fromPage, toPage) of every block into z and n. */
+export interface HeadMergeMessage {
+  readonly merge: {
+    readonly blocks: readonly SimdHeadBlock[];
+    readonly z: Float64Array;
+    readonly n: Float64Array;
+    readonly heads: number;
+    readonly fromPage: number;
+    readonly toPage: number;
+  };
+}
+
+export type HeadWorkerMessage = HeadTrainMessage | HeadMergeMessage;
+
+/** The worker's answer to one message. */
 export type HeadWorkerReply = { readonly ok: true } | { readonly error: string };
 
 /** Passed as workerData. */
@@ -29,8 +45,13 @@ if (port !== null) {
   port.on("message", (message: HeadWorkerMessage) => {
     let reply: HeadWorkerReply;
     try {
-      if (message.sliceStats !== null) trainer.useSliceStats(message.sliceStats);
-      trainer.train(message.batch);
+      if ("merge" in message) {
+        const { blocks, z, n, heads, fromPage, toPage } = message.merge;
+        for (const block of blocks) copyMarkedPages(block, z, n, heads, fromPage, toPage);
+      } else {
+        if (message.sliceStats !== null) trainer.useSliceStats(message.sliceStats);
+        trainer.train(message.batch);
+      }
       reply = { ok: true };
     } catch (error) {
       reply = { error: error instanceof Error ? (error.stack ?? error.message) : String(error) };

@@ -11,14 +11,18 @@ import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
 
 /**
  * Worker threads used when the caller does not say: one per core. Measured with
- * `npm run bench:heads` on the shared 2-core machine: two workers (each with its
- * own copy of its heads) spend ~1.3x the CPU time per row of one thread, so with
- * both cores free they finish ~1.5x sooner (projected from CPU time; the machine
- * was never idle while measuring).
+ * `npm run bench:heads` (2-core machine, load ~1.7, WebAssembly kernel): one
+ * thread 188k rows/s; one worker 235k; two workers 238-251k, at 6.6-7.0 CPU us
+ * per row against 5.4 on one thread.
  */
 export const DEFAULT_HEAD_WORKERS = Math.max(1, availableParallelism());
 
-/** Whether the calling thread trains a block of heads beside the workers: measured in bench/heads.ts. */
+/**
+ * Whether the calling thread trains a block of heads beside the workers. In
+ * bench:heads (encoding only on the calling thread) it measured 0.5-1 % faster
+ * than two workers, within the noise; with files to read and parse the calling
+ * thread has more to do, so the default leaves training to the workers.
+ */
 export const CALLER_TRAINS = false;
 
 export interface LearnHeadsOptions {

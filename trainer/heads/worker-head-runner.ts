@@ -1,6 +1,11 @@
 import { Worker } from "node:worker_threads";
 import { LeafcastError } from "../errors.js";
-import { BlockTrainer, type HeadKernelChoice, type TrainingBlock } from "./block-trainer.js";
+import {
+  BlockTrainer,
+  isSimdBlock,
+  type HeadKernelChoice,
+  type TrainingBlock,
+} from "./block-trainer.js";
 import { growBlockSlices } from "./grow-block-slices.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
@@ -10,6 +15,7 @@ import { makeFtrlRule } from "./make-ftrl-rule.js";
 import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { SharedBatchBuffers } from "./shared-batch-buffers.js";
+import { copyMarkedPages, settleSimdMerge } from "./simd/simd-head-block.js";
 
 /** Whether workers get their own copies of their heads' arrays under trainHeadBlock: measured in bench/heads.ts. */
 export const SEPARATE_BLOCKS = true;
@@ -89,7 +95,35 @@ export class WorkerHeadRunner implements HeadRunner {
 
   async drain(): Promise<void> {
     await this.inflight;
-    mergeTrainingBlocks(this.state, this.blocks);
+    const simd = this.blocks.filter(isSimdBlock);
+    if (simd.length < this.blocks.length || this.workers.length === 0) {
+      mergeTrainingBlocks(this.state, this.blocks);
+      return;
+    }
+    // Every thread copies a share of the pages: first writes to the state's
+    // arrays fault in fresh memory, slow enough on some machines to matter.
+    const { state } = this;
+    const pages = state.writtenPages.length;
+    const shares = this.workers.length + 1;
+    const bound = (i: number): number => Math.floor((pages * i) / shares);
+    const heads = state.headCount;
+    const copies = this.workers.map((worker, i) =>
+      worker.run({
+        merge: {
+          blocks: simd,
+          z: state.z,
+          n: state.n,
+          heads,
+          fromPage: bound(i),
+          toPage: bound(i + 1),
+        },
+      }),
+    );
+    for (const block of simd) {
+      copyMarkedPages(block, state.z, state.n, heads, bound(shares - 1), pages);
+    }
+    await Promise.all(copies);
+    for (const block of simd) settleSimdMerge(state, block);
   }
 
   async close(): Promise<void> {

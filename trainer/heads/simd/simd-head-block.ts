@@ -73,7 +73,7 @@ export function createSimdHeadBlock(state: HeadState, first: number, count: numb
   const f64 = new Float64Array(memory.buffer, 0, coordinates * lanes * 2);
   // The memory starts zeroed: only pages the state has written need copying.
   const heads = state.headCount;
-  forEachPage(state.writtenPages, coordinates, (from, to) => {
+  forEachPage(state.writtenPages, coordinates, 0, (from, to) => {
     for (let c = from; c < to; c++) {
       const block = c * lanes * 2;
       const at = c * heads + first;
@@ -115,22 +115,56 @@ export function createSimdHeadBlock(state: HeadState, first: number, count: numb
  * mergeSimdHeadBlock(state, block); // state.z, state.n now hold what the kernel learned
  */
 export function mergeSimdHeadBlock(state: HeadState, block: SimdHeadBlock): void {
+  const pages = state.writtenPages.length;
+  copyMarkedPages(block, state.z, state.n, state.headCount, 0, pages);
+  settleSimdMerge(state, block);
+}
+
+/**
+ * The first part of a merge, for any thread: copies a block's marked pages in
+ * [fromPage, toPage) into z and n laid out [coordinate][heads]. Threads given
+ * disjoint page ranges can share the work; settleSimdMerge finishes it.
+ *
+ * @example
+ * copyMarkedPages(block, state.z, state.n, state.headCount, 0, 1024);
+ */
+export function copyMarkedPages(
+  block: SimdHeadBlock,
+  z: Float64Array,
+  n: Float64Array,
+  heads: number,
+  fromPage: number,
+  toPage: number,
+): void {
   const { lanes, coordinateCount: coordinates } = block;
   const count = block.heads.length;
   const first = block.heads[0];
-  const heads = state.headCount;
   const f64 = new Float64Array(block.memory.buffer, 0, coordinates * lanes * 2);
-  const marks = new Uint8Array(block.memory.buffer, block.pagesAt, state.writtenPages.length);
-  forEachPage(marks, coordinates, (from, to) => {
+  const marks = new Uint8Array(block.memory.buffer, block.pagesAt, pageCount(coordinates));
+  forEachPage(marks.subarray(0, toPage), coordinates, fromPage, (from, to) => {
     for (let c = from; c < to; c++) {
       const at = c * lanes * 2;
       const into = c * heads + first;
       for (let h = 0; h < count; h++) {
-        state.z[into + h] = f64[at + h];
-        state.n[into + h] = f64[at + lanes + h];
+        z[into + h] = f64[at + h];
+        n[into + h] = f64[at + lanes + h];
       }
     }
   });
+}
+
+/**
+ * The last part of a merge, once every page is copied: records the copied pages
+ * as written in the state, clears the block's marks and copies its sums.
+ *
+ * @example
+ * settleSimdMerge(state, block);
+ */
+export function settleSimdMerge(state: HeadState, block: SimdHeadBlock): void {
+  const count = block.heads.length;
+  const first = block.heads[0];
+  const heads = state.headCount;
+  const marks = new Uint8Array(block.memory.buffer, block.pagesAt, state.writtenPages.length);
   marks.forEach((mark, page) => {
     if (mark !== 0) state.writtenPages[page] = 1;
   });
@@ -145,14 +179,19 @@ export function mergeSimdHeadBlock(state: HeadState, block: SimdHeadBlock): void
   stats.overall.set(block.overall, first * STAT_FIELDS);
 }
 
-/** Calls `copy(from, to)` for the coordinate range of each marked page. */
+function pageCount(coordinates: number): number {
+  return Math.ceil(coordinates / 2 ** COORDINATE_PAGE_SHIFT);
+}
+
+/** Calls `copy(from, to)` for the coordinate range of each marked page from `firstPage` on. */
 function forEachPage(
   marks: Uint8Array,
   coordinates: number,
+  firstPage: number,
   copy: (from: number, to: number) => void,
 ): void {
   const size = 2 ** COORDINATE_PAGE_SHIFT;
-  for (let page = 0; page < marks.length; page++) {
+  for (let page = firstPage; page < marks.length; page++) {
     if (marks[page] !== 0) copy(page * size, Math.min(coordinates, (page + 1) * size));
   }
 }
