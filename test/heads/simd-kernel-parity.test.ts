@@ -3,10 +3,8 @@ import type { HeadBlock, KernelBatch } from "../../trainer/heads/head-block.js";
 import { HeadState } from "../../trainer/heads/head-state.js";
 import { makeFtrlRule } from "../../trainer/heads/make-ftrl-rule.js";
 import { packLabels } from "../../trainer/heads/pack-labels.js";
-import {
-  createSimdHeadBlock,
-  mergeSimdHeadBlock,
-} from "../../trainer/heads/simd/simd-head-block.js";
+import { createSimdHeadBlock } from "../../trainer/heads/simd/create-simd-head-block.js";
+import { mergeSimdHeadBlock } from "../../trainer/heads/simd/merge-simd-head-block.js";
 import { SimdHeadKernel } from "../../trainer/heads/simd/simd-head-kernel.js";
 import { trainHeadBlock } from "../../trainer/heads/train-head-block.js";
 import type { HeadSettings } from "../../trainer/schema/load-training-config.js";

@@ -7,7 +7,8 @@
 import { parentPort, workerData } from "node:worker_threads";
 import { BlockTrainer, type TrainingBlock } from "./block-trainer.js";
 import type { FtrlRule, KernelBatch } from "./head-block.js";
-import { copyMarkedPages, type SimdHeadBlock } from "./simd/simd-head-block.js";
+import { copyMarkedPages } from "./simd/merge-simd-head-block.js";
+import type { SimdHeadBlock } from "./simd/simd-head-block.js";
 
 /** What the main thread posts per batch; `sliceStats` replaces the block's when the slices outgrew it. */
 export interface HeadTrainMessage {

@@ -1,6 +1,7 @@
 import type { HeadKernelChoice, TrainingBlock } from "./block-trainer.js";
 import type { HeadState } from "./head-state.js";
-import { createSimdHeadBlock, simdBlockCount } from "./simd/simd-head-block.js";
+import { createSimdHeadBlock } from "./simd/create-simd-head-block.js";
+import { simdBlockCount } from "./simd/simd-head-block.js";
 import { splitHeadBlocks } from "./split-head-blocks.js";
 
 /**

@@ -1,7 +1,7 @@
 import { isSimdBlock, type TrainingBlock } from "./block-trainer.js";
 import type { HeadState } from "./head-state.js";
 import { mergeHeadBlocks } from "./merge-head-blocks.js";
-import { mergeSimdHeadBlock } from "./simd/simd-head-block.js";
+import { mergeSimdHeadBlock } from "./simd/merge-simd-head-block.js";
 
 /**
  * Brings the state's z, n and progressive sums up to date from blocks made by

@@ -15,7 +15,7 @@ import { makeFtrlRule } from "./make-ftrl-rule.js";
 import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { SharedBatchBuffers } from "./shared-batch-buffers.js";
-import { copyMarkedPages, settleSimdMerge } from "./simd/simd-head-block.js";
+import { copyMarkedPages, settleSimdMerge } from "./simd/merge-simd-head-block.js";
 
 /** Whether workers get their own copies of their heads' arrays under trainHeadBlock: measured in bench/heads.ts. */
 export const SEPARATE_BLOCKS = true;
@@ -107,21 +107,28 @@ export class WorkerHeadRunner implements HeadRunner {
     const shares = this.workers.length + 1;
     const bound = (i: number): number => Math.floor((pages * i) / shares);
     const heads = state.headCount;
+    const copyShare = (i: number): void => {
+      for (const block of simd) {
+        copyMarkedPages(block, state.z, state.n, heads, bound(i), bound(i + 1));
+      }
+    };
+    // A worker that died since its last batch has left that batch in shared
+    // memory: its share is copied here, and its failure surfaces at the next batch.
     const copies = this.workers.map((worker, i) =>
-      worker.run({
-        merge: {
-          blocks: simd,
-          z: state.z,
-          n: state.n,
-          heads,
-          fromPage: bound(i),
-          toPage: bound(i + 1),
-        },
-      }),
+      worker
+        .run({
+          merge: {
+            blocks: simd,
+            z: state.z,
+            n: state.n,
+            heads,
+            fromPage: bound(i),
+            toPage: bound(i + 1),
+          },
+        })
+        .catch(() => copyShare(i)),
     );
-    for (const block of simd) {
-      copyMarkedPages(block, state.z, state.n, heads, bound(shares - 1), pages);
-    }
+    copyShare(shares - 1);
     await Promise.all(copies);
     for (const block of simd) settleSimdMerge(state, block);
   }
