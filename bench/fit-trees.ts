@@ -6,12 +6,14 @@
  * one depth-6 regression tree on 5,000 of the same rows, measured in this run.
  * The last line is one JSON object of the figures.
  *
- * Run: npm run bench:fit  (options: --rows N --trees N --workers N --cart-rows N --block-rows N)
+ * Run: npm run bench:fit  (options: --rows N --trees N --workers N --cart-rows N --block-rows N,
+ * and --javascript to fit with the JavaScript kernels instead of the WebAssembly ones)
  */
 import { availableParallelism, loadavg } from "node:os";
 import { binFeatures } from "../trainer/trees/bin-features.js";
 import { fitForests, type ForestSettings } from "../trainer/trees/fit-forests.js";
 import { SeededRandom } from "../trainer/trees/seeded-random.js";
+import { treeKernelModule } from "../trainer/trees/simd/tree-kernel.js";
 
 interface MlCartRegression {
   train(x: number[][], y: number[]): void;
@@ -72,8 +74,10 @@ async function main(): Promise<void> {
   const workers = option("workers", availableParallelism());
   const cartRows = option("cart-rows", 5_000);
   const blockRows = option("block-rows", 0);
+  const javascriptKernels = process.argv.includes("--javascript");
+  const kernels = javascriptKernels || treeKernelModule() === null ? "JavaScript" : "WebAssembly";
   console.log(
-    `fit-trees: ${rows} rows x ${FEATURES} features, ${trees} trees of depth 6, 255 bins, ${workers} workers`,
+    `fit-trees: ${rows} rows x ${FEATURES} features, ${trees} trees of depth 6, 255 bins, ${workers} workers, ${kernels} kernels`,
   );
 
   let data: { columns: Float64Array[]; label: Uint8Array } | null = generate(rows, 42);
@@ -112,6 +116,7 @@ async function main(): Promise<void> {
     seed: 1,
     workers,
     ...(blockRows > 0 ? { blockRows } : {}),
+    javascriptKernels,
     onProgress: (p) => {
       if (p.tree % 10 === 0) {
         console.log(
@@ -159,6 +164,7 @@ async function main(): Promise<void> {
       cpu_seconds: Number(cpuSeconds.toFixed(3)),
       load_average: Number(load.toFixed(2)),
       workers,
+      kernels,
     }),
   );
 }

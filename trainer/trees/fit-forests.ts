@@ -72,6 +72,11 @@ export interface FitForestsOptions {
   readonly blockRows?: number;
   /** Periodic checkpoints, and the progress of one to continue from. */
   readonly checkpoint?: ForestCheckpointing;
+  /**
+   * Use only the JavaScript kernels, not the WebAssembly ones (for tests: both give
+   * the same trees bit for bit).
+   */
+  readonly javascriptKernels?: boolean;
 }
 
 /** A fitted forest with what was learned along the way. */
@@ -140,6 +145,7 @@ export async function fitForests(
     histogramBlocks,
     segments: Math.min(n, rootBlocks * levelNodes) + 1,
     lossBlocks: lossBlocks(n),
+    webAssembly: options.javascriptKernels !== true,
   });
   if (buffers.weight !== null && weight !== null) buffers.weight.set(weight);
   if (buffers.validation !== null && validation !== null) buffers.validation.set(validation);

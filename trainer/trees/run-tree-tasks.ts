@@ -2,6 +2,7 @@ import { addTreeToScores } from "./add-tree-to-scores.js";
 import { accumulateHistogram } from "./histogram-kernel.js";
 import { logLossGradients } from "./log-loss-gradients.js";
 import { partitionRows } from "./partition-rows.js";
+import { TreeKernel } from "./simd/tree-kernel.js";
 import type { TrainingBuffers } from "./training-buffers.js";
 import { TreeTaskOp } from "./tree-task-op.js";
 
@@ -9,7 +10,10 @@ import { TreeTaskOp } from "./tree-task-op.js";
  * Runs one round's records (see tree-task-op.ts) over the shared buffers. The
  * same function runs in every worker thread and, with one worker, on the main
  * thread, so the arithmetic is the same code either way. `scratch` is the
- * calling thread's own buffers for partitions (see createTaskScratch).
+ * calling thread's own buffers for partitions (see createTaskScratch), with its
+ * instance of the WebAssembly kernel when buffers.memory is set: histograms,
+ * partitions, traversals and unweighted gradients then run there, the same bits
+ * as the JavaScript kernels (which run otherwise, and for weighted gradients).
  *
  * Without `claim` the thread runs every record in order. With it, threads share
  * the round: each takes the next record of claim.order (record offsets into
@@ -78,7 +82,19 @@ function runTreeTask(
       let packed = position;
       for (let s = ints[f]; s < ints[f + 1]; s += GRADIENT_PIECE_ROWS) {
         const e = Math.min(s + GRADIENT_PIECE_ROWS, ints[f + 1]);
-        if (depth >= 0) {
+        if (depth >= 0 && scratch.kernel !== null) {
+          scratch.kernel.traverse(
+            b.bins.byteOffset,
+            b.columnCount,
+            s,
+            e,
+            depth,
+            b.nodeColumn.byteOffset,
+            b.goesRight.byteOffset,
+            b.leafValue.byteOffset,
+            b.score.byteOffset,
+          );
+        } else if (depth >= 0) {
           addTreeToScores(
             b.bins,
             b.columnCount,
@@ -92,31 +108,36 @@ function runTreeTask(
           );
         }
         const from = packed;
-        packed = logLossGradients(
-          b.score,
-          b.label,
-          b.weight,
-          b.validation,
-          position < 0 ? b.gradHess : b.ordered,
-          packed,
-          s,
-          e,
-          b.sums,
-          slot,
-        );
+        const out = position < 0 ? b.gradHess : b.ordered;
+        const kernelGradients = b.weight === null ? (scratch.kernel?.gradients ?? null) : null;
+        packed =
+          kernelGradients !== null
+            ? kernelGradients(
+                b.score.byteOffset,
+                b.label.byteOffset,
+                b.validation === null ? 0 : b.validation.byteOffset,
+                out.byteOffset,
+                packed,
+                s,
+                e,
+                b.sums,
+                slot,
+              )
+            : logLossGradients(
+                b.score,
+                b.label,
+                b.weight,
+                b.validation,
+                out,
+                packed,
+                s,
+                e,
+                b.sums,
+                slot,
+              );
         if (position < 0) continue;
         packTrainingRows(b, scratch.binWords, s, e, from);
-        if (hist !== null) {
-          accumulateHistogram(
-            b.placed,
-            b.placedStride,
-            b.columnCount,
-            from,
-            packed,
-            b.ordered,
-            hist,
-          );
-        }
+        if (hist !== null) sumHistogram(b, scratch.kernel, from, packed, hist);
       }
       break;
     }
@@ -131,25 +152,13 @@ function runTreeTask(
       for (let s = f + 5; s < at; s += 2) {
         const start = ints[s];
         const end = ints[s + 1];
-        const left = partitionRows(
-          b.placed,
-          b.placedWords,
-          b.placedStride,
-          b.ordered,
-          start,
-          end,
-          ints[f + 2],
-          b.goesRight,
-          256 * ints[f + 3],
-          scratch.gradients,
-          scratch.words,
-        );
+        const left = partitionSegment(b, scratch, start, end, ints[f + 2], ints[f + 3]);
         b.counts[countSlot++] = left;
         // The smaller child's block histogram while the segment is still in cache.
         if (hist !== null) {
           const from = right === 0 ? start : start + left;
           const to = right === 0 ? start + left : end;
-          accumulateHistogram(b.placed, b.placedStride, b.columnCount, from, to, b.ordered, hist);
+          sumHistogram(b, scratch.kernel, from, to, hist);
         }
       }
       break;
@@ -159,15 +168,7 @@ function runTreeTask(
       const hist = b.blockHist.subarray(base, base + b.histSize);
       hist.fill(0);
       for (let s = f + 1; s < at; s += 2) {
-        accumulateHistogram(
-          b.placed,
-          b.placedStride,
-          b.columnCount,
-          ints[s],
-          ints[s + 1],
-          b.ordered,
-          hist,
-        );
+        sumHistogram(b, scratch.kernel, ints[s], ints[s + 1], hist);
       }
       break;
     }
@@ -185,10 +186,75 @@ export interface TaskScratch {
   readonly words: Uint32Array;
   /** buffers.bins as 32-bit words when its rows are whole words (a view, not a copy). */
   readonly binWords: Uint32Array | null;
+  /** This thread's instance of the WebAssembly kernel over buffers.memory (null without one). */
+  readonly kernel: TreeKernel | null;
 }
 
 /**
- * Allocates a thread's partition buffers for segments of up to buffers.blockRows rows.
+ * partitionRows of one node segment (its split table is node's 256 bytes of
+ * b.goesRight): with the WebAssembly kernel when the thread has one for these
+ * rows, else in JavaScript; the same bytes either way. Returns the left rows.
+ */
+function partitionSegment(
+  b: TrainingBuffers,
+  scratch: TaskScratch,
+  start: number,
+  end: number,
+  column: number,
+  node: number,
+): number {
+  const partition = scratch.kernel?.partition ?? null;
+  if (partition !== null) {
+    const table = b.goesRight.byteOffset + 256 * node;
+    return partition(b.placed.byteOffset, b.ordered.byteOffset, start, end, column, table) - start;
+  }
+  return partitionRows(
+    b.placed,
+    b.placedWords,
+    b.placedStride,
+    b.ordered,
+    start,
+    end,
+    column,
+    b.goesRight,
+    256 * node,
+    scratch.gradients,
+    scratch.words,
+  );
+}
+
+/**
+ * Adds positions start .. end - 1 to `hist` (a block of b.blockHist): with the
+ * WebAssembly kernel when the thread has one, else accumulateHistogram; both
+ * give the same bits.
+ */
+function sumHistogram(
+  b: TrainingBuffers,
+  kernel: TreeKernel | null,
+  start: number,
+  end: number,
+  hist: Float64Array,
+): void {
+  if (kernel !== null) {
+    const { placed, ordered } = b;
+    kernel.histogram(
+      placed.byteOffset,
+      b.placedStride,
+      b.columnCount,
+      start,
+      end,
+      ordered.byteOffset,
+      hist.byteOffset,
+    );
+    return;
+  }
+  accumulateHistogram(b.placed, b.placedStride, b.columnCount, start, end, b.ordered, hist);
+}
+
+/**
+ * Allocates a thread's partition buffers for segments of up to buffers.blockRows rows
+ * and, over buffers.memory, its WebAssembly kernel (whose partitions have scratch
+ * of their own in that memory; the JavaScript scratch is then left empty).
  *
  * @example
  * const scratch = createTaskScratch(buffers);
@@ -196,10 +262,16 @@ export interface TaskScratch {
 export function createTaskScratch(buffers: TrainingBuffers): TaskScratch {
   const bins = buffers.bins;
   const wordRows = buffers.columnCount % 4 === 0 && bins.byteOffset % 4 === 0;
+  const kernel =
+    buffers.memory === null
+      ? null
+      : new TreeKernel(buffers.memory, buffers.blockRows, buffers.placedStride);
+  const rows = kernel !== null && kernel.partition !== null ? 0 : buffers.blockRows;
   return {
-    gradients: new Float64Array(2 * buffers.blockRows),
-    words: new Uint32Array((buffers.blockRows * buffers.placedStride) / 4),
+    gradients: new Float64Array(2 * rows),
+    words: new Uint32Array((rows * buffers.placedStride) / 4),
     binWords: wordRows ? new Uint32Array(bins.buffer, bins.byteOffset, bins.length >> 2) : null,
+    kernel,
   };
 }
 

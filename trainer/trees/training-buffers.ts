@@ -1,4 +1,5 @@
 import { COLUMN_SLOTS, SLOT_VALUES } from "./histogram-kernel.js";
+import { TreeKernel, treeKernelModule } from "./simd/tree-kernel.js";
 
 /**
  * The memory that the tree learner and its worker threads share. Every array is a
@@ -6,7 +7,19 @@ import { COLUMN_SLOTS, SLOT_VALUES } from "./histogram-kernel.js";
  * memory instead of copying it.
  */
 export interface TrainingBuffers {
-  /** Row-major bins (BinnedFeatures.bins), in row order; read to score rows outside a tree. */
+  /**
+   * The shared WebAssembly memory that holds `placed`, `ordered`, `blockHist`,
+   * `goesRight`, `nodeColumn`, `leafValue`, `score`, `gradHess`, `label`,
+   * `validation` and a copy of `bins` (and grows by each thread's own part),
+   * for the WebAssembly tree kernel (simd/tree-kernel.ts), which each thread
+   * instantiates over it; null where the engine cannot run the kernel or the
+   * arrays would pass MAX_KERNEL_BYTES (the JavaScript kernels then run instead).
+   */
+  readonly memory: WebAssembly.Memory | null;
+  /**
+   * Row-major bins (BinnedFeatures.bins, or its copy in `memory`), in row order; read
+   * to score rows outside a tree.
+   */
   readonly bins: Uint8Array;
   readonly columnCount: number;
   /**
@@ -78,6 +91,12 @@ export interface TrainingBufferSizes {
   readonly histogramBlocks: number;
   readonly segments: number;
   readonly lossBlocks: number;
+  /**
+   * Whether to lay the arrays out in one WebAssembly memory for the WebAssembly
+   * kernels (default true); false keeps plain SharedArrayBuffers and the
+   * JavaScript kernels.
+   */
+  readonly webAssembly?: boolean;
 }
 
 /**
@@ -96,31 +115,82 @@ export function createTrainingBuffers(
   const internal = 2 ** sizes.maxDepth - 1;
   const placedStride = 4 * Math.ceil(sizes.columnCount / 4);
   const rowsLength = sizes.sampleRows ? n : 0;
-  const placedBuffer = new SharedArrayBuffer(Math.max(4, n * placedStride));
+  const placedBytes = n * placedStride;
+  const blockHistLength = sizes.histogramBlocks * histSize;
+  // One memory, regions at 16-byte boundaries, and room to grow by every thread's
+  // own part (see TreeKernel).
+  let end = 0;
+  const region = (bytes: number): number => {
+    const at = end;
+    end = 16 * Math.ceil((at + Math.max(1, bytes)) / 16);
+    return at;
+  };
+  region(Math.max(4, placedBytes));
+  const orderedAt = region(16 * n);
+  const blockHistAt = region(8 * blockHistLength);
+  const goesRightAt = region(256 * internal);
+  const scoreAt = region(8 * n);
+  const gradHessAt = region(sizes.sampleRows ? 16 * n : 0);
+  const labelAt = region(n);
+  const validationAt = region(sizes.hasValidation ? n : 0);
+  const nodeColumnAt = region(4 * internal);
+  const leafValueAt = region(8 * (internal + 1));
+  const binsAt = region(bins.length);
+  const initial = Math.ceil(end / PAGE);
+  const threadPages = Math.ceil(TreeKernel.scratchBytes(sizes.blockRows, placedStride) / PAGE);
+  const maximum = Math.min(MAX_KERNEL_BYTES / PAGE, initial + MAX_THREADS * threadPages);
+  const memory =
+    sizes.webAssembly !== false && initial + threadPages <= maximum && treeKernelModule() !== null
+      ? new WebAssembly.Memory({ initial, maximum, shared: true })
+      : null;
+  const f64 = (at: number, length: number): Float64Array =>
+    memory === null ? sharedFloat64(length) : new Float64Array(memory.buffer, at, length);
+  const u8 = (at: number, length: number): Uint8Array =>
+    memory === null ? sharedBytes(length) : new Uint8Array(memory.buffer, at, length);
+  // The kernel's traversal reads the bins from its memory: one copy per fit.
+  const kernelBins = memory === null ? bins : new Uint8Array(memory.buffer, binsAt, bins.length);
+  if (kernelBins !== bins) kernelBins.set(bins);
+  const placedBuffer = memory?.buffer ?? new SharedArrayBuffer(Math.max(4, placedBytes));
   return {
-    bins,
+    memory,
+    bins: kernelBins,
     columnCount: sizes.columnCount,
     placed: new Uint8Array(placedBuffer, 0, n * placedStride),
     placedStride,
     placedWords: new Uint32Array(placedBuffer, 0, (n * placedStride) / 4),
     histSize,
     blockRows: sizes.blockRows,
-    score: sharedFloat64(n),
-    gradHess: sharedFloat64(sizes.sampleRows ? 2 * n : 0),
-    ordered: sharedFloat64(2 * n),
-    label: sharedBytes(n),
+    score: f64(scoreAt, n),
+    gradHess: f64(gradHessAt, sizes.sampleRows ? 2 * n : 0),
+    ordered: f64(orderedAt, 2 * n),
+    label: u8(labelAt, n),
     weight: sizes.hasWeight ? sharedFloat64(n) : null,
-    validation: sizes.hasValidation ? sharedBytes(n) : null,
+    validation: sizes.hasValidation ? u8(validationAt, n) : null,
     rows: new Uint32Array(new SharedArrayBuffer(4 * Math.max(1, rowsLength)), 0, rowsLength),
-    goesRight: sharedBytes(256 * internal),
-    nodeColumn: new Int32Array(new SharedArrayBuffer(4 * internal)),
-    leafValue: sharedFloat64(internal + 1),
-    blockHist: sharedFloat64(sizes.histogramBlocks * histSize),
+    goesRight: u8(goesRightAt, 256 * internal),
+    nodeColumn:
+      memory === null
+        ? new Int32Array(new SharedArrayBuffer(4 * internal))
+        : new Int32Array(memory.buffer, nodeColumnAt, internal),
+    leafValue: f64(leafValueAt, internal + 1),
+    blockHist: f64(blockHistAt, blockHistLength),
     rootHistBlocks: new Int32Array(new SharedArrayBuffer(4)),
     counts: new Int32Array(new SharedArrayBuffer(4 * Math.max(1, sizes.segments))),
     sums: sharedFloat64(4 * sizes.lossBlocks),
   };
 }
+
+/**
+ * Most bytes of the kernel's memory: 2 GiB, so that every byte address is a
+ * non-negative 32-bit integer on both sides of the JavaScript-WebAssembly call.
+ */
+const MAX_KERNEL_BYTES = 2 ** 31;
+
+/** Threads whose partition scratch the memory has room for (more fall back to JavaScript). */
+const MAX_THREADS = 64;
+
+/** Bytes in a WebAssembly page. */
+const PAGE = 65536;
 
 function sharedFloat64(length: number): Float64Array {
   return new Float64Array(new SharedArrayBuffer(8 * Math.max(1, length)), 0, length);
