@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { decodeHeadCheckpoint } from "../../trainer/heads/decode-head-checkpoint.js";
 import { decodeForestCheckpoint } from "../../trainer/trees/decode-forest-checkpoint.js";
 import { plotlineDays } from "../pipeline/pipeline-fixtures.js";
+import { testRandom } from "../trees/tree-test-helpers.js";
 import { runCliChild, type KillPlan } from "./cli-child.js";
 import { ensureBuiltCli } from "./ensure-built-cli.js";
 
@@ -115,17 +116,6 @@ function pipeline(out: string): Step[] {
   ];
 }
 
-/** A small seeded generator (mulberry32), so the kill moments are the same on every run. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) | 0;
-    let t = Math.imul(a ^ (a >>> 15), 1 | a);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 /**
  * How far a checkpoint got, in progress lines of an uninterrupted run: the trees
  * it holds, or the checkpoint lines of rows it has learned. 0 without one.
@@ -169,7 +159,7 @@ describe("SIGKILL and resume through the command line", () => {
 
     const killed = join(dir, "killed");
     await mkdir(killed);
-    const random = seeded(20261202);
+    const random = testRandom(20261202);
     const kills: string[] = [];
     let landedAfterCheckpoint = 0;
     for (const step of pipeline(killed)) {

@@ -9,6 +9,7 @@ import {
 } from "../../datasets/plotline/plotline-options.js";
 import type { WrittenBatch, WrittenColumn } from "../../trainer/data/write-columns.js";
 import { writeDataFile } from "../../trainer/data/write-data-file.js";
+import { testRandom } from "../trees/tree-test-helpers.js";
 
 /**
  * Plotline features that drive `open` strongly in the generator
@@ -66,7 +67,7 @@ export async function writePruningFixture(): Promise<{ dir: string; path: string
     ...plotlineColumns(resolvePlotlineOptions(PRUNING_PLOTLINE)),
     ...NOISE_FEATURES.map((name): WrittenColumn => ({ name, type: "float64", decimals: 3 })),
   ];
-  const streams = NOISE_FEATURES.map((_, i) => mulberry32(1000 + i));
+  const streams = NOISE_FEATURES.map((_, i) => testRandom(1000 + i));
   function* batches(): Generator<WrittenBatch> {
     for (const chunk of generatePlotline(PRUNING_PLOTLINE)) {
       const extra: Record<string, Float64Array> = {};
@@ -80,16 +81,4 @@ export async function writePruningFixture(): Promise<{ dir: string; path: string
   }
   await writeDataFile(path, "parquet", columns, batches());
   return { dir, path };
-}
-
-/** A small seeded uniform generator (mulberry32), independent of the project's own. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }

@@ -15,23 +15,12 @@ import type {
   HeadReport,
   ReportInput,
 } from "../../trainer/report/report-input.js";
+import { testRandom } from "../trees/tree-test-helpers.js";
 
 /** A segment value that would run a script if it reached the page unescaped. */
 export const HOSTILE_SEGMENT = `<script>console.error("injected segment")</script>`;
 /** A feature name that would load an image and run a handler if unescaped. */
 export const HOSTILE_FEATURE = `<img src=x onerror="console.error('injected feature')">`;
-
-/** A tiny seeded generator (mulberry32, common practice). */
-export function fixtureRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const OUTCOMES: readonly [string, number][] = [
   ["open", 0.3],
@@ -150,7 +139,7 @@ function psiSeries(forest: string, trees: number, random: () => number): ForestP
 
 /** The full fixture: every section present. */
 export function plotlineReportInput(): ReportInput {
-  const random = fixtureRandom(20240506);
+  const random = testRandom(20240506);
   const heads = OUTCOMES.map(([outcome, rate]) => head(outcome, rate, random));
   const forests = [
     psiSeries("open", 40, random),

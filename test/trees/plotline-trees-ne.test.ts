@@ -1,10 +1,14 @@
 import { describe, expect, it } from "vitest";
 import { generatePlotline } from "../../datasets/plotline/generate-plotline.js";
-import type { PlotlineChunkColumns } from "../../datasets/plotline/plotline-columns.js";
+import {
+  PLOTLINE_COLUMN_NAMES,
+  type PlotlineChunkColumns,
+} from "../../datasets/plotline/plotline-columns.js";
 import type { PlotlineOptions } from "../../datasets/plotline/plotline-options.js";
 import {
   DEVICES,
   GARDEN_SITES,
+  PLOTLINE_OUTCOMES,
   POST_TYPES,
   authorIds,
 } from "../../datasets/plotline/plotline-vocabulary.js";
@@ -47,36 +51,20 @@ const SCENARIO: PlotlineOptions = {
 };
 const HELD_OUT = 0.2;
 
-const NUMERIC: readonly (keyof PlotlineChunkColumns)[] = [
-  "timestamp",
-  "tie_strength",
-  "past_reactions_to_author",
-  "past_replies_to_author",
-  "is_plot_neighbour",
-  "follows_author",
-  "author_followers",
-  "author_post_rate",
-  "post_age_hours",
-  "feed_position",
-  "text_length",
-  "photo_count",
-  "video_seconds",
-  "hour_of_day",
-  "is_weekend",
-  "viewer_tenure_days",
-  "recent_sessions",
-  "viewer_posts_30d",
-  "replies_so_far",
-  "reactions_so_far",
-  "distance_to_site_km",
-  "temperature_c",
-];
 const CATEGORICAL = [
   { name: "post_type", dictionary: POST_TYPES },
   { name: "garden_site", dictionary: GARDEN_SITES },
   { name: "device", dictionary: DEVICES },
   { name: "author_id", dictionary: authorIds(SCENARIO.authors as number) },
 ] as const;
+// Every generated column but ids, categories, outcomes and the true probabilities.
+const NUMERIC = PLOTLINE_COLUMN_NAMES.filter(
+  (name) =>
+    name !== "viewer_id" &&
+    !CATEGORICAL.some((c) => c.name === name) &&
+    !(PLOTLINE_OUTCOMES as readonly string[]).includes(name) &&
+    !name.startsWith("true_"),
+);
 const OUTCOMES = ["open", "react"] as const;
 
 /** The scenario's rows as whole columns. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import type { ForestModel } from "../../scorer/model-types.js";
 import { binFeatures } from "../../trainer/trees/bin-features.js";
 import { fitForests, type FittedForest } from "../../trainer/trees/fit-forests.js";
+import { bits, expectSameForest } from "./same-forest.js";
 import { mixedData, plainSettings } from "./tree-test-helpers.js";
 
 // Determinism across thread counts (the done-when list): block histograms
@@ -65,24 +65,3 @@ describe("same seed, same trees with 1 and 2 workers", () => {
     },
   );
 });
-
-function expectSameForest(a: ForestModel, b: ForestModel): void {
-  expect(b.depth).toBe(a.depth);
-  expect(Object.is(b.baseLogit, a.baseLogit)).toBe(true);
-  expect(b.trees.length).toBe(a.trees.length);
-  a.trees.forEach((tree, t) => {
-    const other = b.trees[t];
-    expect(Array.from(other.feature)).toEqual(Array.from(tree.feature));
-    expect(bits(other.threshold)).toEqual(bits(tree.threshold));
-    expect(Array.from(other.missingRight)).toEqual(Array.from(tree.missingRight));
-    expect(other.rightCategories.map((c) => (c === null ? null : Array.from(c)))).toEqual(
-      tree.rightCategories.map((c) => (c === null ? null : Array.from(c))),
-    );
-    expect(bits(other.leafValue)).toEqual(bits(tree.leafValue));
-  });
-}
-
-/** The exact bit patterns of a Float64Array, so that equality means bitwise equality. */
-function bits(values: Float64Array): bigint[] {
-  return Array.from(new BigInt64Array(values.buffer, values.byteOffset, values.length));
-}
