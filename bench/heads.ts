@@ -12,7 +12,7 @@
  *
  * Target: >= 250,000 rows per second on the 2-core machine.
  *
- * Run: npm run bench:heads  (options: --rows N --batch N --workers N --hash-bits N)
+ * Run: npm run bench:heads  (options: --rows N --batch N --workers N --hash-bits N --half-life N)
  */
 import { spawnSync } from "node:child_process";
 import { availableParallelism } from "node:os";
@@ -44,6 +44,8 @@ const rows = option("rows", 1_048_576);
 const batchRows = option("batch", 65_536);
 const maxWorkers = option("workers", availableParallelism());
 const hashBits = option("hash-bits", 20);
+/** With --half-life N, heads.averaging = { halfLifeRows: N, everyRows: N / 8 } (0: no averaging, the default). */
+const halfLife = option("half-life", 0);
 
 /** Seeded uniform numbers in [0, 1) (32-bit LCG, Numerical Recipes constants). */
 function lcg(seed: number): () => number {
@@ -158,6 +160,7 @@ const settings: HeadSettings = {
   negativeKeepRate: {},
   downsampleCorrection: "recalibrate",
   sliceHours: 24,
+  averaging: halfLife > 0 ? { halfLifeRows: halfLife, everyRows: Math.ceil(halfLife / 8) } : null,
 };
 const setup: HeadSetup = {
   outcomes: OUTCOMES,
@@ -244,7 +247,9 @@ if (only >= 0) {
 } else {
   console.log(
     `heads benchmark: ${OUTCOMES.length} heads, ${TREES} trees of depth ${DEPTH} + ${HASHED} hashed features ` +
-      `(2^${hashBits} buckets), ${rows} rows in batches of ${batchRows}, index space ${indexSize}; ` +
+      `(2^${hashBits} buckets), ${rows} rows in batches of ${batchRows}, index space ${indexSize}` +
+      (halfLife > 0 ? `, weights averaged (half-life ${halfLife} rows)` : "") +
+      "; " +
       `each line from a fresh process; core-us/row is CPU time of all threads per row`,
   );
   const line = (label: string, m: Measured): void => {

@@ -26,6 +26,7 @@ export function headSettings(overrides: Partial<HeadSettings> = {}): HeadSetting
     negativeKeepRate: {},
     downsampleCorrection: "recalibrate",
     sliceHours: 24,
+    averaging: null,
     ...overrides,
   };
 }

@@ -68,6 +68,8 @@ export const demoConfig = {
     lambda2: 1,
     hashBits: 18,
     crosses: [["post_type", "garden_site"]],
+    // About a day of the demo's impressions: exported heads average out the latest rows' noise.
+    averaging: { halfLifeRows: 20_000 },
   },
 };
 

@@ -46,6 +46,7 @@ export function checkResume(state: HeadState, setup: HeadSetup, file = "<head st
     "negativeKeepRate",
     "downsampleCorrection",
     "sliceHours",
+    "averaging",
     "seed",
   ];
   for (const key of settings) compare("settings_changed", key, wanted[key], saved[key]);

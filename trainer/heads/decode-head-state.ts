@@ -1,7 +1,11 @@
 import { checkJsonSchema } from "../../scorer/json-schema-check.js";
 import { LeafcastError, type Issue } from "../errors.js";
 import { HEAD_STATE_MAGIC, LITTLE_ENDIAN } from "./encode-head-state.js";
-import { headStateHeaderSchema, type HeadStateHeader } from "./head-state-header.js";
+import {
+  headStateHeaderSchema,
+  READABLE_HEAD_STATE_VERSIONS,
+  type HeadStateHeader,
+} from "./head-state-header.js";
 import { COORDINATE_PAGE_SHIFT, HeadState } from "./head-state.js";
 import { STAT_FIELDS } from "./progressive-stats.js";
 
@@ -30,7 +34,12 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
   const view = new DataView(data.buffer, data.byteOffset, data.byteLength);
   const version = view.getUint32(8, true);
   const headerBytes = view.getUint32(12, true);
-  if (version !== 1) fail("unsupported_version", `expected head-state version 1, found ${version}`);
+  if (!READABLE_HEAD_STATE_VERSIONS.includes(version)) {
+    fail(
+      "unsupported_version",
+      `expected head-state version ${READABLE_HEAD_STATE_VERSIONS.join(" or ")}, found ${version}`,
+    );
+  }
   if (headerBytes % 8 !== 0 || 16 + headerBytes > data.length) {
     fail(
       "truncated",
@@ -50,7 +59,15 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
   }));
   if (issues.length > 0) throw new LeafcastError("heads", issues);
   const header = document as HeadStateHeader;
-  const { info } = header;
+  // Version 1 files predate averaging.
+  const info = { ...header.info, averaging: header.info.averaging ?? null };
+  const averaged = info.averaging !== null;
+  if (averaged !== (header.averageMass !== undefined) || (averaged && version < 2)) {
+    fail(
+      "invalid_header",
+      `expected averageMass exactly when info.averaging is set (version 2), found averaging ${JSON.stringify(info.averaging)} and averageMass ${JSON.stringify(header.averageMass)} in version ${version}`,
+    );
+  }
   const heads = info.outcomes.length;
   if (info.negativeKeepRate.length !== heads || header.statFields !== STAT_FIELDS) {
     fail(
@@ -65,7 +82,7 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
     16 +
     headerBytes +
     coordinateBytes +
-    8 * (2 * stored * heads + (1 + slices) * heads * STAT_FIELDS);
+    8 * ((averaged ? 3 : 2) * stored * heads + (1 + slices) * heads * STAT_FIELDS);
   if (data.length !== expected) {
     fail(
       "truncated",
@@ -81,6 +98,10 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
   at += 8 * stored * heads;
   const n = new Float64Array(data.buffer, data.byteOffset + at, stored * heads);
   at += 8 * stored * heads;
+  const average = averaged
+    ? new Float64Array(data.buffer, data.byteOffset + at, stored * heads)
+    : null;
+  if (averaged) at += 8 * stored * heads;
   let previous = -1;
   for (let k = 0; k < stored; k++) {
     const c = coordinates[k];
@@ -93,6 +114,9 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
     previous = c;
     state.z.set(z.subarray(k * heads, (k + 1) * heads), c * heads);
     state.n.set(n.subarray(k * heads, (k + 1) * heads), c * heads);
+    if (average !== null) {
+      state.average?.set(average.subarray(k * heads, (k + 1) * heads), c * heads);
+    }
     state.writtenPages[c >>> COORDINATE_PAGE_SHIFT] = 1;
   }
   const overall = new Float64Array(data.buffer, data.byteOffset + at, heads * STAT_FIELDS);
@@ -104,6 +128,7 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
   );
   state.progressive.restore(overall, header.sliceIndexes, sliceStats);
   state.rowCount = header.rowCount;
+  state.averageMass = header.averageMass ?? 0;
   state.firstTimestamp = header.firstTimestamp;
   state.lastTimestamp = header.lastTimestamp;
   return state;

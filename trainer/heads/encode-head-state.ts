@@ -22,6 +22,7 @@ export const HEAD_STATE_MAGIC = "LCHEADST";
  *         u32[K] stored coordinates, ascending, zero-padded to a multiple of 8
  *         f64[K * heads] z, [coordinate][head]
  *         f64[K * heads] n
+ *         f64[K * heads] averaged weights, only under info.averaging (version 2)
  *         f64[heads * 5] progressive sums over all rows
  *         f64[slices * heads * 5] progressive sums per slice
  *
@@ -57,14 +58,20 @@ export function encodeHeadState(state: HeadState): Uint8Array {
     sliceIndexes: stats.sliceIndexes,
     storedCoordinates: stored,
     statFields: STAT_FIELDS,
+    ...(state.average === null ? {} : { averageMass: state.averageMass }),
   };
   const json = new TextEncoder().encode(JSON.stringify(header));
   const headerBytes = align8(16 + json.length) - 16;
   const coordinateBytes = align8(stored * 4);
   const valueCount = stored * heads;
+  const { average } = state;
+  const sections = average === null ? 2 : 3;
   const sliceValues = stats.sliceCount * heads * STAT_FIELDS;
   const total =
-    16 + headerBytes + coordinateBytes + 8 * (2 * valueCount + heads * STAT_FIELDS + sliceValues);
+    16 +
+    headerBytes +
+    coordinateBytes +
+    8 * (sections * valueCount + heads * STAT_FIELDS + sliceValues);
   const bytes = new Uint8Array(total);
   bytes.set(new TextEncoder().encode(HEAD_STATE_MAGIC), 0);
   const view = new DataView(bytes.buffer);
@@ -80,11 +87,15 @@ export function encodeHeadState(state: HeadState): Uint8Array {
   at += 8 * valueCount;
   const nOut = new Float64Array(bytes.buffer, at, valueCount);
   at += 8 * valueCount;
+  const averageOut = average === null ? null : new Float64Array(bytes.buffer, at, valueCount);
+  if (averageOut !== null) at += 8 * valueCount;
+  // A coordinate whose z and n are zero never had a gradient, so its average is zero too.
   for (let c = 0, k = 0; c < coordinateCount; c++) {
     if (!touched(z, n, c, heads)) continue;
     coordinates[k] = c;
     zOut.set(z.subarray(c * heads, (c + 1) * heads), k * heads);
     nOut.set(n.subarray(c * heads, (c + 1) * heads), k * heads);
+    averageOut?.set((average as Float64Array).subarray(c * heads, (c + 1) * heads), k * heads);
     k++;
   }
   new Float64Array(bytes.buffer, at, heads * STAT_FIELDS).set(stats.overall);

@@ -3,7 +3,9 @@ import type { HeadStateInfo } from "./resolve-head-state-info.js";
 
 /** Format name and version of the head-state file (see encode-head-state.ts). */
 export const HEAD_STATE_FORMAT = "leafcast-head-state";
-export const HEAD_STATE_VERSION = 1;
+export const HEAD_STATE_VERSION = 2;
+/** Versions this build reads: 1 had no weight averaging. */
+export const READABLE_HEAD_STATE_VERSIONS: readonly number[] = [1, 2];
 
 /** The JSON header of a head-state file; the binary sections follow it. */
 export interface HeadStateHeader {
@@ -19,6 +21,8 @@ export interface HeadStateHeader {
   /** Coordinates with a non-zero z or n for some head; the others are all zero. */
   readonly storedCoordinates: number;
   readonly statFields: number;
+  /** Under info.averaging: HeadState.averageMass (and the averaged-weight section follows n). */
+  readonly averageMass?: number;
 }
 
 const nullableNumber = { anyOf: [{ type: "number" }, { type: "null" }] };
@@ -47,7 +51,7 @@ export const headStateHeaderSchema: JsonSchema = {
   ],
   properties: {
     format: { const: HEAD_STATE_FORMAT },
-    version: { const: HEAD_STATE_VERSION },
+    version: { enum: [...READABLE_HEAD_STATE_VERSIONS] },
     byteOrder: { const: "little-endian" },
     rowCount: { type: "integer", minimum: 0 },
     firstTimestamp: nullableNumber,
@@ -55,6 +59,7 @@ export const headStateHeaderSchema: JsonSchema = {
     sliceIndexes: { type: "array", items: { type: "integer" }, uniqueItems: true },
     storedCoordinates: { type: "integer", minimum: 0 },
     statFields: { type: "integer", minimum: 1 },
+    averageMass: { type: "number", minimum: 0, maximum: 1 },
     info: {
       type: "object",
       required: [
@@ -84,6 +89,19 @@ export const headStateHeaderSchema: JsonSchema = {
         },
         downsampleCorrection: { enum: ["weight", "recalibrate"] },
         sliceHours: { type: "number", exclusiveMinimum: 0 },
+        averaging: {
+          anyOf: [
+            { type: "null" },
+            {
+              type: "object",
+              required: ["halfLifeRows", "everyRows"],
+              properties: {
+                halfLifeRows: { type: "integer", minimum: 1 },
+                everyRows: { type: "integer", minimum: 1 },
+              },
+            },
+          ],
+        },
         seed: { type: "integer", minimum: 0, maximum: 4294967295 },
         indexSize: { type: "integer", minimum: 0, maximum: 2147483646 },
         treesFingerprint: { type: "string" },

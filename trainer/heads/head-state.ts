@@ -33,6 +33,14 @@ export class HeadState {
    * Whatever writes z or n must mark the pages (the decoder and the merges do).
    */
   readonly writtenPages: Uint8Array;
+  /**
+   * Under info.averaging: the exponential moving average of every weight,
+   * [coordinate][head] like z, as of the last snapshot (see weight-average.ts);
+   * null otherwise. Zero on pages never written.
+   */
+  readonly average: Float64Array | null;
+  /** The share of the average's total weight the snapshots so far hold: 1 - 2^(-rows averaged / half-life). */
+  averageMass = 0;
   /** Rows seen by every run of this state; also numbers the rows for downsampling. */
   rowCount = 0;
   /** Earliest and latest row timestamp seen (ms since the Unix epoch), null before any. */
@@ -44,6 +52,7 @@ export class HeadState {
     const length = (info.indexSize + 1) * info.outcomes.length;
     this.z = sharedFloat64(length);
     this.n = sharedFloat64(length);
+    this.average = info.averaging === null ? null : new Float64Array(length);
     this.progressive = new ProgressiveStats(info.outcomes.length, info.sliceHours);
     this.writtenPages = new Uint8Array(
       Math.ceil((info.indexSize + 1) / 2 ** COORDINATE_PAGE_SHIFT),

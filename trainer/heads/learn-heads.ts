@@ -7,6 +7,8 @@ import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch, HeadSetup } from "./head-setup.js";
 import { HeadState } from "./head-state.js";
 import { InlineHeadRunner } from "./inline-head-runner.js";
+import { sliceHeadBatch } from "./slice-head-batch.js";
+import { foldWeightSnapshot } from "./weight-average.js";
 import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
 
 /**
@@ -106,8 +108,12 @@ export async function learnHeads(
       const rows = batch.encoded.rowCount;
       if (rows === 0) continue;
       const before = state.rowCount;
-      await runner.submit(batch, before, maxRowLength);
-      state.rowCount = before + rows;
+      if (state.info.averaging === null) {
+        await runner.submit(batch, before, maxRowLength);
+        state.rowCount = before + rows;
+      } else {
+        await submitAveraged(runner, state, state.info.averaging.everyRows, batch, maxRowLength);
+      }
       if (batch.timestamps !== null) widenWindow(state, batch.timestamps, rows);
       const byRows =
         everyRows > 0 && Math.floor(state.rowCount / everyRows) > Math.floor(before / everyRows);
@@ -123,6 +129,34 @@ export async function learnHeads(
     await runner.close();
   }
   return state;
+}
+
+/**
+ * Trains on a batch cut where the row count reaches a multiple of `everyRows`;
+ * at each such row the state is drained and the latest weights folded into the
+ * moving average. The cuts depend on the row count only, so a resumed run folds
+ * exactly where an uninterrupted one does.
+ */
+async function submitAveraged(
+  runner: HeadRunner,
+  state: HeadState,
+  everyRows: number,
+  batch: HeadBatch,
+  maxRowLength: number,
+): Promise<void> {
+  const rows = batch.encoded.rowCount;
+  for (let from = 0; from < rows;) {
+    const snapshotRow = (Math.floor(state.rowCount / everyRows) + 1) * everyRows;
+    const to = Math.min(rows, from + (snapshotRow - state.rowCount));
+    const part = from === 0 && to === rows ? batch : sliceHeadBatch(batch, from, to);
+    await runner.submit(part, state.rowCount, maxRowLength);
+    state.rowCount += to - from;
+    from = to;
+    if (state.rowCount === snapshotRow) {
+      await runner.drain();
+      foldWeightSnapshot(state);
+    }
+  }
 }
 
 function widenWindow(state: HeadState, timestamps: Float64Array, rows: number): void {

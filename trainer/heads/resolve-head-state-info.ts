@@ -1,4 +1,5 @@
 import type { EncodingSpec } from "../../scorer/model-types.js";
+import type { HeadAveraging } from "../schema/load-training-config.js";
 import { LeafcastError, type Issue } from "../errors.js";
 import type { HeadSetup } from "./head-setup.js";
 
@@ -13,6 +14,8 @@ export interface HeadStateInfo {
   readonly negativeKeepRate: readonly number[];
   readonly downsampleCorrection: "weight" | "recalibrate";
   readonly sliceHours: number;
+  /** How exported weights are averaged; null: the latest weights are exported (and files from before averaging existed). */
+  readonly averaging: HeadAveraging | null;
   readonly seed: number;
   readonly encoding: EncodingSpec;
   readonly indexSize: number;
@@ -63,6 +66,13 @@ export function resolveHeadStateInfo(setup: HeadSetup): HeadStateInfo {
       );
     }
   });
+  if (s.averaging !== null) {
+    for (const [name, value] of Object.entries(s.averaging)) {
+      if (!Number.isSafeInteger(value) || value < 1) {
+        bad("bad_setting", `averaging.${name} expected a whole number >= 1, found ${value}`);
+      }
+    }
+  }
   if (!Number.isInteger(setup.seed) || setup.seed < 0 || setup.seed > 0xffffffff) {
     bad("bad_seed", `seed expected an integer in [0, 2^32), found ${setup.seed}`);
   }
@@ -76,6 +86,10 @@ export function resolveHeadStateInfo(setup: HeadSetup): HeadStateInfo {
     negativeKeepRate: rates,
     downsampleCorrection: s.downsampleCorrection,
     sliceHours: s.sliceHours,
+    averaging:
+      s.averaging === null
+        ? null
+        : { halfLifeRows: s.averaging.halfLifeRows, everyRows: s.averaging.everyRows },
     seed: setup.seed,
     encoding: setup.encoding,
     indexSize: setup.indexSize,

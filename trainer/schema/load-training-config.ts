@@ -44,6 +44,14 @@ export interface HeadSettings {
   readonly negativeKeepRate: Readonly<Record<string, number>>;
   readonly downsampleCorrection: "weight" | "recalibrate";
   readonly sliceHours: number;
+  /** Export an exponential moving average of the weights (see HeadAveraging); null exports the latest weights. */
+  readonly averaging: HeadAveraging | null;
+}
+
+/** How exported weights are averaged: snapshots every `everyRows` rows, each one's share halving every `halfLifeRows`. */
+export interface HeadAveraging {
+  readonly halfLifeRows: number;
+  readonly everyRows: number;
 }
 
 export interface ResolvedTrainingConfig {
@@ -122,6 +130,13 @@ export function resolveTrainingConfig(
       negativeKeepRate: ownEntries(h.negativeKeepRate ?? {}),
       downsampleCorrection: h.downsampleCorrection ?? "recalibrate",
       sliceHours: h.sliceHours ?? 24,
+      averaging:
+        h.averaging === undefined
+          ? null
+          : {
+              halfLifeRows: h.averaging.halfLifeRows,
+              everyRows: h.averaging.everyRows ?? Math.ceil(h.averaging.halfLifeRows / 8),
+            },
     },
     checkpoint: {
       everyTrees: doc.checkpoint?.everyTrees ?? 10,

@@ -243,6 +243,26 @@ export const trainingConfigDocument = {
           "type": "number",
           "exclusiveMinimum": 0,
           "description": "Width of the time slices over which progressive-validation metrics are kept. Default 24."
+        },
+        "averaging": {
+          "type": "object",
+          "additionalProperties": false,
+          "required": [
+            "halfLifeRows"
+          ],
+          "properties": {
+            "halfLifeRows": {
+              "type": "integer",
+              "minimum": 1,
+              "description": "Rows after which a snapshot's share of the average has halved."
+            },
+            "everyRows": {
+              "type": "integer",
+              "minimum": 1,
+              "description": "Rows between snapshots folded into the average. Default halfLifeRows / 8, rounded up."
+            }
+          },
+          "description": "Export an exponential moving average of each head's weights, snapshotted every everyRows rows, instead of the latest weights. The latest weights follow the last few thousand rows: with 100-200 leaf features active per row their noise moves every prediction together, so held-out calibration swings by several per cent between snapshots. Progressive validation still scores with the latest weights. Default: none (export the latest weights)."
         }
       }
     },
@@ -423,6 +443,19 @@ export interface Heads {
    * Width of the time slices over which progressive-validation metrics are kept. Default 24.
    */
   sliceHours?: number;
+  /**
+   * Export an exponential moving average of each head's weights, snapshotted every everyRows rows, instead of the latest weights. The latest weights follow the last few thousand rows: with 100-200 leaf features active per row their noise moves every prediction together, so held-out calibration swings by several per cent between snapshots. Progressive validation still scores with the latest weights. Default: none (export the latest weights).
+   */
+  averaging?: {
+    /**
+     * Rows after which a snapshot's share of the average has halved.
+     */
+    halfLifeRows: number;
+    /**
+     * Rows between snapshots folded into the average. Default halfLifeRows / 8, rounded up.
+     */
+    everyRows?: number;
+  };
 }
 /**
  * This interface was referenced by `TrainingConfig`'s JSON-Schema
