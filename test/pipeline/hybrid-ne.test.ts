@@ -15,47 +15,44 @@ import { plotlineDays, plotlineSchema } from "./pipeline-fixtures.js";
 // - normalized entropy (He et al. 2014: mean log loss / H(training positive
 //   rate), trainer/metrics normalizedEntropy) below the trees-only model's for
 //   every outcome;
-// - for the common outcomes (open, react), NE within 2 % of the NE of the
-//   generator's true probabilities on the same rows (the best any model of these
-//   columns can do), and calibration (mean predicted / observed rate, He et al.
-//   2014) within 0.97 to 1.03, also with negatives downsampled 10x and the
+// - for the common outcomes (open 20 %, react 6 %), NE within 2 % of the NE of
+//   the generator's true probabilities on the same rows (the best any model of
+//   these columns can do), and calibration (mean predicted / observed rate, He
+//   et al. 2014) within 0.97 to 1.03, also with negatives downsampled 10x and the
 //   scorer's re-calibration q = p / (p + (1 - p) / w) (He et al. 2014).
-// open is held to those targets; react is not (see REACT).
 //
-// Data: 14 days of 40,000 impressions, 200 authors; trees on days 1-2, heads on
-// days 1-12, held out days 13-14. alpha 0.005 (the config default is 0.01): with
-// ~180 active leaf coordinates per row (6 forests of 30 trees) a larger alpha lets
-// the last rows move the sum of weights far. Measured with data seeds 1 to 5 (this
-// file uses 3), NE gap to the true probabilities / calibration:
+// Data: 16 days of 40,000 impressions, 200 authors; 6 forests of 60 trees of depth
+// 5 on days 1-2, heads on days 1-12, held out days 13-16 (160,000 rows: on 80,000,
+// label noise alone moved react's observed rate by up to 2 %). alpha 0.005 (the
+// config default is 0.01). The exported heads are a moving average of the weights
+// (heads.averaging, half-life 20,000 rows; weight-average.ts).
+//
+// Measured with data seeds 1 to 6 (this file uses 3; HYBRID_SEED=n runs another):
 //              all negatives kept                      negatives kept at 0.1
-//   open   gap 0.96-1.32 %, calibration 0.983-1.012   gap 1.18-1.64 %, 0.979-0.997
-//   react  gap 1.65-2.00 %, calibration 0.992-1.056   gap 1.88-2.25 %, 0.954-1.039
-// and the hybrid beat trees-only for all six outcomes in all ten runs (smallest
-// margin: save, NE 0.997 of trees-only, seed 3). Seed 3: open 0.96 % / 0.993 and
-// 1.18 % / 0.995, react 2.00 % / 1.021 and 2.21 % / 1.006.
+//   open   gap 0.75-0.95 %, calibration 0.994-1.019   gap 0.95-1.27 %, 0.989-1.012
+//   react  gap 1.11-1.52 %, calibration 0.978-1.028   gap 1.28-1.71 %, 0.972-1.016
+// and the hybrid beat trees-only for all six outcomes in all twelve runs (closest:
+// open, NE 0.993 of trees-only, seed 3, downsampled). The true probabilities' own
+// calibration on the held-out rows was 0.985-1.009 for react.
 //
-// Why react misses 0.97-1.03 and 2 %, found while sizing this test:
-// - The exported heads are a snapshot whose level follows the last hours of
-//   training: the sum of ~180 per-coordinate rates alpha / (beta + sqrt(n))
-//   gives the common level of all predictions a memory of about half a day. With
-//   20,000 rows a day and alpha 0.007, held-out react calibration of the
-//   snapshot taken after each training day went 1.021, 1.044, 0.941 (days 10 to
-//   12, seed 1), open 0.949, 0.975, 1.042; a larger held-out set cannot remove
-//   that. The true probabilities' own calibration on the held-out rows was
-//   0.98 to 1.02 (label noise), so the snapshot, not the held-out set, dominates.
-// - Under "recalibrate", the head is calibrated on the sampled rows (react near
-//   39 % there) but its predictions are less spread than the truth, so shifting
-//   the log-odds by ln(0.1) into the convex low-rate region lowers its mean. At
-//   8 days of 20,000 rows its held-out react mean was 0.986 to 1.004 of the true
-//   one in the sampled space (seeds 1 to 3) but 0.89 to 0.96 after the shift
-//   (seeds 1 to 5); here it was 0 to 4 % (mean 1.8 %) below the same run
-//   without downsampling.
-//   "weight" avoids the shift but not the snapshot noise.
-// - react's NE gap stayed near 2 % when the heads saw 4x the rows; trees on 3
-//   days or of depth 6 lowered it by ~0.1 to 0.2 points (seeds 1, 3), but with
-//   trees on 3 days hide's heads no longer always beat its trees (1.001, seed 5).
-//   alpha 0.007 lowered it by ~0.1 point (seeds 1, 2, 3, 5: 1.52-1.89 % kept,
-//   1.69-2.11 % downsampled) but open's downsampled calibration fell to 0.973.
+// What made react reach the targets, found while sizing this test (14 days, two
+// held out, seeds 1-5):
+// - 30 trees per forest left react's NE gap at 1.65-2.25 %; 60 trees gave
+//   1.12-1.72 %. With 30 trees, depth 6 or trees on 4 days lowered it by 0.05 to
+//   0.5 point (seeds 1, 3, 5: up to 2.19 % and 1.95 %); weight averaging or
+//   tie_strength as a numeric head feature moved it by 0.1 point or less.
+// - The latest weights' level follows the last few thousand rows: with ~360
+//   active leaf coordinates per row, their per-coordinate steps add up. Exported
+//   as they were, held-out calibration went 0.957-1.052 (react) and 0.961-1.025
+//   (open). A moving average with a half-life of 20,000 rows (half a day) gave
+//   0.969-1.026 and 0.989-1.020, at a cost of under 0.07 NE points; 40,000 to
+//   120,000 rows did no better.
+// - Under "recalibrate", a head whose predictions are less spread than the truth
+//   is pulled down by the shift into the low-rate region (Jensen): downsampled
+//   react runs 0-2 % below the same run with all negatives.
+// Not targets here, for the record (seeds 1-6): reply (1.5 %) reaches NE gaps of
+// 2.0-3.3 %, and save's calibration 0.98-1.12: save depends on the weekend,
+// which trees fitted on two weekdays cannot see.
 const OUTCOMES = ["open", "react", "reply", "save", "reshare", "hide"];
 
 /** Per common outcome: the largest NE gap to the true probabilities and calibration distance from 1. */
@@ -65,14 +62,6 @@ interface Bounds {
 }
 /** The issue's targets: NE within 2 % of the true-probability NE, calibration 0.97 to 1.03. */
 const ISSUE: Bounds = { neGap: 0.02, calibration: 0.03 };
-/**
- * NOT the issue's targets: react measured NE gaps up to 2.25 % and calibration
- * from 0.954 to 1.056 over five data seeds (see the comment above: the snapshot's
- * level follows the last half day of training, and re-calibration after
- * downsampling lowers a less spread prediction's mean), so it is held to 2.5 %
- * and 0.94 to 1.06 with and without downsampling.
- */
-const REACT: Bounds = { neGap: 0.025, calibration: 0.06 };
 
 let dir = "";
 let paths: string[] = [];
@@ -82,9 +71,10 @@ const configWith = (negativeKeepRate: number) =>
   resolveTrainingConfig({
     seed: 2,
     workers: 1,
-    trees: { count: 30, depth: 5, bins: 64, outcomes: OUTCOMES, validationFraction: 0 },
+    trees: { count: 60, depth: 5, bins: 64, outcomes: OUTCOMES, validationFraction: 0 },
     heads: {
       alpha: 0.005,
+      averaging: { halfLifeRows: 20_000 },
       hashBits: 16,
       negativeKeepRate: Object.fromEntries(OUTCOMES.map((o) => [o, negativeKeepRate])),
     },
@@ -92,8 +82,8 @@ const configWith = (negativeKeepRate: number) =>
 
 beforeAll(async () => {
   ({ dir, paths } = await plotlineDays("leafcast-pipeline-ne-", {
-    seed: 3,
-    days: 14,
+    seed: Number(process.env.HYBRID_SEED ?? 3),
+    days: 16,
     rowsPerDay: 40_000,
     newPostTypeDay: null,
     layoutChangeDay: null,
@@ -112,33 +102,46 @@ async function heldOut(negativeKeepRate: number): Promise<HeldOutFigures[]> {
     workers: 1,
   });
   const trainingRate = new Map(learned.report.map((h) => [h.outcome, h.overall.positiveRate]));
-  return heldOutFigures(paths.slice(12), schema, forests, learned.state, trainingRate);
+  const figures = await heldOutFigures(
+    paths.slice(12),
+    schema,
+    forests,
+    learned.state,
+    trainingRate,
+  );
+  report(figures, `held out, negatives kept at ${negativeKeepRate}`);
+  return figures;
 }
 
-function expectTargets(
-  figures: readonly HeldOutFigures[],
-  bounds: Readonly<Record<"open" | "react", Bounds>>,
-): void {
+/** One line per outcome in the test log, so a run's figures can be compared with those above. */
+function report(figures: readonly HeldOutFigures[], label: string): void {
+  const line = (f: HeldOutFigures): string =>
+    `${f.outcome} gap ${((f.hybridNe / f.trueNe - 1) * 100).toFixed(2)} % calibration ` +
+    `${f.calibration.toFixed(3)} (true ${f.trueCalibration.toFixed(3)}), NE / trees-only ${(f.hybridNe / f.treesNe).toFixed(4)}`;
+  console.log(`${label}:\n  ${figures.map(line).join("\n  ")}`);
+}
+
+function expectTargets(figures: readonly HeldOutFigures[], bounds: Bounds): void {
   for (const f of figures) {
     expect(f.hybridNe, `${f.outcome}: hybrid NE below trees-only`).toBeLessThan(f.treesNe);
   }
   for (const outcome of ["open", "react"] as const) {
     const f = figures.find((x) => x.outcome === outcome) as HeldOutFigures;
     const gap = f.hybridNe / f.trueNe - 1;
-    expect(gap, `${outcome}: NE gap to the true probabilities`).toBeLessThan(bounds[outcome].neGap);
+    expect(gap, `${outcome}: NE gap to the true probabilities`).toBeLessThan(bounds.neGap);
     expect(
       Math.abs(f.calibration - 1),
       `${outcome}: calibration (true probabilities' own: ${f.trueCalibration.toFixed(4)})`,
-    ).toBeLessThan(bounds[outcome].calibration);
+    ).toBeLessThan(bounds.calibration);
   }
 }
 
 describe("the hybrid on held-out Plotline days", () => {
   it("beats trees-only for every outcome and nears the true-probability NE", async () => {
-    expectTargets(await heldOut(1), { open: ISSUE, react: REACT });
+    expectTargets(await heldOut(1), ISSUE);
   }, 60_000);
 
   it("stays calibrated with negatives downsampled 10x", async () => {
-    expectTargets(await heldOut(0.1), { open: ISSUE, react: REACT });
+    expectTargets(await heldOut(0.1), ISSUE);
   }, 60_000);
 });
