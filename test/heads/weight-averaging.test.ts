@@ -97,6 +97,38 @@ describe("weight averaging", () => {
     }
   });
 
+  it("averages to the same bits on 0 to 3 threads, with either kernel", async () => {
+    // Five heads: WebAssembly blocks of 4 + 1 lanes (one padding lane), JavaScript blocks of views or copies.
+    const outcomes = ["open", "react", "reply", "save", "hide"];
+    const five = syntheticDays(9, 2, 2000, outcomes.length);
+    const setup = headSetup(outcomes, syntheticIndexSize(), {
+      ...settings,
+      negativeKeepRate: { react: 0.3 },
+      averaging: { halfLifeRows: 900, everyRows: 300 },
+    });
+    const run = (
+      workers: number,
+      kernel: "simd" | "js",
+      callerTrains = false,
+    ): Promise<HeadState> =>
+      learnHeads(batchesOf(five, 0, 4000, 650), setup, { workers, kernel, callerTrains });
+    const reference = await run(0, "js");
+    expect(reference.averageMass).toBeGreaterThan(0.9);
+    for (const kernel of ["simd", "js"] as const) {
+      for (const workers of [0, 1, 2, 3]) {
+        for (const callerTrains of workers >= 2 ? [false, true] : [false]) {
+          const state = await run(workers, kernel, callerTrains);
+          const label = `${kernel}, ${workers} threads${callerTrains ? ", caller trains" : ""}`;
+          expect(
+            sameBits(state.average as Float64Array, reference.average as Float64Array),
+            label,
+          ).toBe(true);
+          expect(state.averageMass, label).toBe(reference.averageMass);
+        }
+      }
+    }
+  });
+
   it("resumes from a saved state exactly as one uninterrupted run", async () => {
     const expectSame = (a: HeadState, b: HeadState): void => {
       expect(sameBits(a.z, b.z)).toBe(true);

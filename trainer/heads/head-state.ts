@@ -52,10 +52,11 @@ export class HeadState {
     const length = (info.indexSize + 1) * info.outcomes.length;
     this.z = sharedFloat64(length);
     this.n = sharedFloat64(length);
-    this.average = info.averaging === null ? null : new Float64Array(length);
+    this.average = info.averaging === null ? null : sharedFloat64(length);
     this.progressive = new ProgressiveStats(info.outcomes.length, info.sliceHours);
+    // Shared: worker threads read it when they fold weights into the average.
     this.writtenPages = new Uint8Array(
-      Math.ceil((info.indexSize + 1) / 2 ** COORDINATE_PAGE_SHIFT),
+      new SharedArrayBuffer(Math.ceil((info.indexSize + 1) / 2 ** COORDINATE_PAGE_SHIFT)),
     );
   }
 

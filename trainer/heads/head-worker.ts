@@ -1,11 +1,12 @@
 /**
  * Worker-thread entry: owns one block of heads (arrays in shared memory, from
- * workerData) and trains it on each batch the main thread posts, or copies its
- * share of a merge, answering `{ ok: true }` or `{ error }` per message.
+ * workerData) and trains it on each batch the main thread posts, copies its
+ * share of a merge, or folds its weights into the moving average, answering `{ ok: true }` or `{ error }` per message.
  * Started by WorkerHeadRunner.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { BlockTrainer, type TrainingBlock } from "./block-trainer.js";
+import { foldBlockWeights, type WeightFold } from "./fold-block-weights.js";
 import type { FtrlRule, KernelBatch } from "./head-block.js";
 import { copyMarkedPages } from "./simd/merge-simd-head-block.js";
 import type { SimdHeadBlock } from "./simd/simd-head-block.js";
@@ -28,7 +29,12 @@ export interface HeadMergeMessage {
   };
 }
 
-export type HeadWorkerMessage = HeadTrainMessage | HeadMergeMessage;
+/** Fold the block's latest weights into the shared average (see fold-block-weights.ts). */
+export interface HeadFoldMessage {
+  readonly fold: WeightFold;
+}
+
+export type HeadWorkerMessage = HeadTrainMessage | HeadMergeMessage | HeadFoldMessage;
 
 /** The worker's answer to one message. */
 export type HeadWorkerReply = { readonly ok: true } | { readonly error: string };
@@ -46,7 +52,9 @@ if (port !== null) {
   port.on("message", (message: HeadWorkerMessage) => {
     let reply: HeadWorkerReply;
     try {
-      if ("merge" in message) {
+      if ("fold" in message) {
+        foldBlockWeights(data.block, data.rule, message.fold);
+      } else if ("merge" in message) {
         const { blocks, z, n, heads, fromPage, toPage } = message.merge;
         for (const block of blocks) copyMarkedPages(block, z, n, heads, fromPage, toPage);
       } else {

@@ -1,5 +1,7 @@
 import { BlockTrainer, type HeadKernelChoice, type TrainingBlock } from "./block-trainer.js";
+import { foldBlockWeights } from "./fold-block-weights.js";
 import { growBlockSlices } from "./grow-block-slices.js";
+import type { FtrlRule } from "./head-block.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
 import type { HeadState } from "./head-state.js";
@@ -7,6 +9,7 @@ import { makeFtrlRule } from "./make-ftrl-rule.js";
 import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { packLabels } from "./pack-labels.js";
+import { weightFold } from "./weight-average.js";
 
 /**
  * Trains every head on the calling thread: with the WebAssembly kernel on its
@@ -22,6 +25,7 @@ export class InlineHeadRunner implements HeadRunner {
   private readonly state: HeadState;
   private readonly blocks: TrainingBlock[];
   private readonly trainers: BlockTrainer[];
+  private readonly rule: FtrlRule;
   private labels = new Uint8Array(0);
   private slots = new Int32Array(0);
 
@@ -29,6 +33,7 @@ export class InlineHeadRunner implements HeadRunner {
     this.state = state;
     this.blocks = makeTrainingBlocks(state, 1, kernel, false);
     const rule = makeFtrlRule(state.info);
+    this.rule = rule;
     this.trainers = this.blocks.map((block) => new BlockTrainer(block, rule));
   }
 
@@ -58,6 +63,12 @@ export class InlineHeadRunner implements HeadRunner {
       maxRowLength,
     };
     for (const trainer of this.trainers) trainer.train(kernelBatch);
+    return Promise.resolve();
+  }
+
+  fold(share: number): Promise<void> {
+    for (const block of this.blocks)
+      foldBlockWeights(block, this.rule, weightFold(this.state, share));
     return Promise.resolve();
   }
 

@@ -8,7 +8,8 @@ import type { HeadBatch, HeadSetup } from "./head-setup.js";
 import { HeadState } from "./head-state.js";
 import { InlineHeadRunner } from "./inline-head-runner.js";
 import { sliceHeadBatch } from "./slice-head-batch.js";
-import { foldWeightSnapshot } from "./weight-average.js";
+import { snapshotShare } from "./weight-average.js";
+import type { HeadAveraging } from "../schema/load-training-config.js";
 import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
 
 /**
@@ -112,7 +113,7 @@ export async function learnHeads(
         await runner.submit(batch, before, maxRowLength);
         state.rowCount = before + rows;
       } else {
-        await submitAveraged(runner, state, state.info.averaging.everyRows, batch, maxRowLength);
+        await submitAveraged(runner, state, state.info.averaging, batch, maxRowLength);
       }
       if (batch.timestamps !== null) widenWindow(state, batch.timestamps, rows);
       const byRows =
@@ -133,17 +134,18 @@ export async function learnHeads(
 
 /**
  * Trains on a batch cut where the row count reaches a multiple of `everyRows`;
- * at each such row the state is drained and the latest weights folded into the
- * moving average. The cuts depend on the row count only, so a resumed run folds
+ * at each such row every thread folds its heads' latest weights into the moving
+ * average. The cuts depend on the row count only, so a resumed run folds
  * exactly where an uninterrupted one does.
  */
 async function submitAveraged(
   runner: HeadRunner,
   state: HeadState,
-  everyRows: number,
+  averaging: HeadAveraging,
   batch: HeadBatch,
   maxRowLength: number,
 ): Promise<void> {
+  const { everyRows } = averaging;
   const rows = batch.encoded.rowCount;
   for (let from = 0; from < rows;) {
     const snapshotRow = (Math.floor(state.rowCount / everyRows) + 1) * everyRows;
@@ -153,8 +155,9 @@ async function submitAveraged(
     state.rowCount += to - from;
     from = to;
     if (state.rowCount === snapshotRow) {
-      await runner.drain();
-      foldWeightSnapshot(state);
+      const share = snapshotShare(everyRows, averaging.halfLifeRows);
+      await runner.fold(share);
+      state.averageMass += share * (1 - state.averageMass);
     }
   }
 }

@@ -1,6 +1,6 @@
+import type { WeightFold } from "./fold-block-weights.js";
 import { ftrlWeight } from "./ftrl-weight.js";
 import type { HeadState } from "./head-state.js";
-import { COORDINATE_PAGE_SHIFT } from "./head-state.js";
 import { makeFtrlRule } from "./make-ftrl-rule.js";
 
 /**
@@ -29,47 +29,41 @@ export function latestWeightOf(state: HeadState): (coordinate: number, head: num
   };
 }
 
-/** A snapshot's share of the average when it is folded in, `rows` after the previous one: 1 - 2^(-rows / half-life). */
-function snapshotShare(rows: number, halfLifeRows: number): number {
+/**
+ * A snapshot's share of the average when it is folded in, `rows` after the
+ * previous one: 1 - 2^(-rows / half-life), so that a snapshot's weight in the
+ * average halves every `halfLifeRows` rows.
+ *
+ * Why average at all: with 100-200 leaf coordinates active per row, the
+ * per-coordinate steps add up, so the common level of all predictions follows
+ * the last few thousand rows and a snapshot's calibration on later days swings
+ * by several per cent. Averaging iterates is the classic remedy (Polyak and
+ * Juditsky 1992); an exponential average keeps following drift.
+ *
+ * @example
+ * snapshotShare(2500, 20_000); // 0.0830...
+ */
+export function snapshotShare(rows: number, halfLifeRows: number): number {
   return -Math.expm1(-(rows / halfLifeRows) * Math.LN2);
 }
 
 /**
- * Folds the latest weights into the state's exponential moving average:
- * average += share * (latest - average), share = 1 - 2^(-everyRows / halfLifeRows).
- * learnHeads calls it, with the state drained, whenever the row count reaches a
- * multiple of everyRows, so a resumed run folds at the same rows as an
- * uninterrupted one. Only written pages are visited: elsewhere the weights and
- * their average are zero.
- *
- * Why: with 100-200 leaf coordinates active per row, the per-coordinate steps
- * add up, so the common level of all predictions follows the last few thousand
- * rows and a snapshot's calibration on later days swings by several per cent.
- * Averaging iterates is the classic remedy (Polyak and Juditsky 1992); an
- * exponential average keeps following drift.
+ * What a runner needs to fold the latest weights into the state's average with
+ * `share` (fold-block-weights.ts); learnHeads asks for a fold whenever the row
+ * count reaches a multiple of averaging.everyRows, and moves averageMass on.
  *
  * @example
- * foldWeightSnapshot(state); // state.average and state.averageMass move on
+ * await runner.fold(snapshotShare(everyRows, halfLifeRows));
  */
-export function foldWeightSnapshot(state: HeadState): void {
-  const { average, headCount: heads, coordinateCount } = state;
-  const averaging = state.info.averaging;
-  if (average === null || averaging === null) {
-    throw new Error("foldWeightSnapshot: the state has no averaging");
-  }
-  const share = snapshotShare(averaging.everyRows, averaging.halfLifeRows);
-  const latest = latestWeightOf(state);
-  const pageSize = 2 ** COORDINATE_PAGE_SHIFT;
-  state.writtenPages.forEach((written, page) => {
-    if (written === 0) return;
-    const end = Math.min(coordinateCount, (page + 1) * pageSize);
-    for (let c = page * pageSize; c < end; c++) {
-      for (let h = 0, at = c * heads; h < heads; h++, at++) {
-        average[at] += share * (latest(c, h) - average[at]);
-      }
-    }
-  });
-  state.averageMass += share * (1 - state.averageMass);
+export function weightFold(state: HeadState, share: number): WeightFold {
+  if (state.average === null) throw new Error("weightFold: the state has no averaging");
+  return {
+    average: state.average,
+    heads: state.headCount,
+    coordinateCount: state.coordinateCount,
+    writtenPages: state.writtenPages,
+    share,
+  };
 }
 
 /**

@@ -6,7 +6,9 @@ import {
   type HeadKernelChoice,
   type TrainingBlock,
 } from "./block-trainer.js";
+import { foldBlockWeights } from "./fold-block-weights.js";
 import { growBlockSlices } from "./grow-block-slices.js";
+import type { FtrlRule } from "./head-block.js";
 import type { HeadRunner } from "./head-runner.js";
 import type { HeadBatch } from "./head-setup.js";
 import type { HeadState } from "./head-state.js";
@@ -16,6 +18,7 @@ import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { SharedBatchBuffers } from "./shared-batch-buffers.js";
 import { copyMarkedPages, settleSimdMerge } from "./simd/merge-simd-head-block.js";
+import { weightFold } from "./weight-average.js";
 
 /** Whether workers get their own copies of their heads' arrays under trainHeadBlock: measured in bench/heads.ts. */
 export const SEPARATE_BLOCKS = true;
@@ -40,6 +43,7 @@ export class WorkerHeadRunner implements HeadRunner {
   private readonly workers: WorkerChannel[];
   /** The calling thread's own block (the last), or null. */
   private readonly local: BlockTrainer | null;
+  private readonly rule: FtrlRule;
   private readonly buffers = [new SharedBatchBuffers(), new SharedBatchBuffers()];
   private turn = 0;
   private inflight: Promise<unknown> = Promise.resolve();
@@ -48,6 +52,7 @@ export class WorkerHeadRunner implements HeadRunner {
     this.state = state;
     this.blocks = blocks;
     const rule = makeFtrlRule(state.info);
+    this.rule = rule;
     const onWorkers = callerTrains && blocks.length > 1 ? blocks.length - 1 : blocks.length;
     this.workers = blocks.slice(0, onWorkers).map((block) => new WorkerChannel({ block, rule }));
     this.local = onWorkers < blocks.length ? new BlockTrainer(blocks[onWorkers], rule) : null;
@@ -91,6 +96,18 @@ export class WorkerHeadRunner implements HeadRunner {
       if (own !== null) this.local.useSliceStats(own);
       this.local.train(kernelBatch);
     }
+  }
+
+  fold(share: number): Promise<void> {
+    // Queued behind the batch in flight rather than awaited, so the caller
+    // encodes the next batch while the workers train and fold.
+    const fold = weightFold(this.state, share);
+    this.inflight = this.inflight.then(() =>
+      Promise.all(this.workers.map((worker) => worker.run({ fold }))),
+    );
+    this.inflight.catch(() => undefined);
+    if (this.local !== null) foldBlockWeights(this.blocks[this.workers.length], this.rule, fold);
+    return Promise.resolve();
   }
 
   async drain(): Promise<void> {
