@@ -1,8 +1,8 @@
 /**
  * Worker-thread entry: owns one block of heads (arrays in shared memory, from
  * workerData) and trains it on each batch the main thread posts, copies its
- * share of a merge, or folds its weights into the moving average, answering `{ ok: true }` or `{ error }` per message.
- * Started by WorkerHeadRunner.
+ * share of a merge, or folds its weights into the moving average, answering
+ * `{ ok: true }` or `{ error }` per message. Started by WorkerHeadRunner.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { BlockTrainer, type TrainingBlock } from "./block-trainer.js";
