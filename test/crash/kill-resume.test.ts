@@ -50,6 +50,8 @@ beforeAll(async () => {
         hashBits: 12,
         numeric: ["tie_strength"],
         negativeKeepRate: { hide: 0.3 },
+        // Snapshots every 250 rows fall inside batches of 300 and between checkpoints.
+        averaging: { halfLifeRows: 1000, everyRows: 250 },
       },
       checkpoint: { everyTrees: 2, everyRows: 600 },
     }),
