@@ -30,7 +30,14 @@ const WINDOW_DAYS = 2;
 const OUTCOMES = ["open", "react", "save"];
 
 let dir = "";
+let paths: string[] = [];
 let study: FreshnessStudy;
+const config = resolveTrainingConfig({
+  seed: 3,
+  workers: 1,
+  trees: { count: 20, depth: 4, bins: 64, validationFraction: 0 },
+  heads: { alpha: 0.05, hashBits: 14 },
+});
 
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), "leafcast-study-"));
@@ -43,16 +50,10 @@ beforeAll(async () => {
     authors: 200,
     viewers: 3000,
   });
-  const schema = await loadDatasetSchema("datasets/plotline.schema.json");
-  const config = resolveTrainingConfig({
-    seed: 3,
-    workers: 1,
-    trees: { count: 20, depth: 4, bins: 64, validationFraction: 0 },
-    heads: { alpha: 0.05, hashBits: 14 },
-  });
+  paths = written.map((w) => w.path);
   study = await runFreshnessStudy(
-    written.map((w) => w.path),
-    schema,
+    paths,
+    await loadDatasetSchema("datasets/plotline.schema.json"),
     config,
     {
       fitDays: FIT_DAYS,
@@ -60,7 +61,7 @@ beforeAll(async () => {
       // Every earlier file: the refit arm's heads see exactly the updated heads' rows,
       // so the two arms differ only in their trees.
       refitDays: "all",
-      // The updated heads first see post-layout rows in the window after the change.
+      // From the window after the change's on, the updated heads have learned post-layout days.
       driftFromDay: LAYOUT_DAY + WINDOW_DAYS,
       segmentColumn: "post_type",
       baselines: false,
@@ -136,6 +137,20 @@ describe("the freshness study on Plotline", () => {
       expect(refit, outcome).toBeLessThan(updated);
     }
   });
+
+  it("updates the heads day by day, each day scored before they learn it", async () => {
+    // Updated heads score a day having learned every earlier day and no later one,
+    // whatever the window size, so with one-day windows they give the same
+    // predictions: the same summaries over all scored rows, to the bit.
+    const daily = await runFreshnessStudy(
+      paths,
+      await loadDatasetSchema("datasets/plotline.schema.json"),
+      config,
+      { fitDays: FIT_DAYS, windowDays: 1, refitDays: 1, baselines: false, workers: 0 },
+    );
+    expect(daily.windows).toHaveLength(12);
+    expect(daily.heads.map((h) => h.overall)).toEqual(study.heads.map((h) => h.overall));
+  }, 120_000);
 
   it("sees the frozen trees' leaf PSI rise once the new post type appears", () => {
     const before = study.windows.flatMap((w, i) => (w.lastDay < NEW_TYPE_DAY ? [i] : []));

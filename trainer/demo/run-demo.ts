@@ -73,7 +73,7 @@ export const demoConfig = {
   },
 };
 
-/** Days the trees are fitted on; the heads learn from them too, then update window by window. */
+/** Days the trees are fitted on; the heads learn from them too, then update day by day. */
 export const DEMO_FIT_DAYS = 7;
 
 /** Days per window of the freshness study: weekly, so the windows start on the drift days 22 and 29. */
@@ -94,8 +94,8 @@ export const DEMO_DRIFT_DAY = 22;
 /**
  * The main job end to end on the built-in Plotline scenario: generate the logs,
  * read them against their schema, then run the freshness study (fit trees and
- * heads on the first week, score each later week with frozen, heads-updated and
- * refit models before the heads learn it), export and time the scorer, and write
+ * heads on the first week, score each later day with frozen, heads-updated and
+ * weekly refit models before the updated heads learn it), export and time the scorer, and write
  * the visual report (runs/demo/report.html) with its short summary.
  *
  * @example
@@ -146,7 +146,7 @@ export async function runDemo(options: DemoOptions): Promise<DemoResult> {
   const windowDays = Math.min(DEMO_WINDOW_DAYS, files.length - fitDays);
   log(
     `3. fit-trees, learn-heads, update-heads: trees (${config.trees.count} at most, depth ${config.trees.depth}) and FTRL-Proximal heads on days 1-${fitDays}, ` +
-      `then days ${fitDays + 1}-${files.length} in windows of ${windowDays} days, each scored before the heads learn it, by frozen, heads-updated and trees-refit (on the latest ${DEMO_REFIT_DAYS} days) models`,
+      `then days ${fitDays + 1}-${files.length} in windows of ${windowDays} days, each day scored before the heads learn it, by frozen, heads-updated (day by day) and trees-refit (every window, on the latest ${DEMO_REFIT_DAYS} days) models`,
   );
   const studyStarted = performance.now();
   const study = await runFreshnessStudy(files, schema, config, {

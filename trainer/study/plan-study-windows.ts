@@ -29,9 +29,11 @@ export interface StudyPlanOptions {
   readonly fitDays: number;
   /**
    * Trailing day files the refit arm learns on before each window, or "all" (the
-   * default) for every file before it. With "all" the refit arm's heads learn from
-   * exactly the rows the updated heads have seen, in the same order, so the two arms
-   * differ only in their trees; a fixed span costs less as the study grows longer.
+   * default) for every file before it. With "all" the refit arm's heads start each
+   * window having learned exactly the rows the updated heads have seen, in the same
+   * order, so on a window's first day the two arms differ only in their trees (on
+   * later days the updated heads have also learned the window's earlier days); a
+   * fixed span costs less as the study grows longer.
    */
   readonly refitDays?: number | "all";
 }

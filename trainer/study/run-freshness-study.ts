@@ -84,9 +84,9 @@ export interface FreshnessStudy {
  * The freshness study: replays day files in windows and scores every window,
  * outcome by outcome, with three arms, none of which has learned from the window
  * it is scored on: (a) "frozen": trees and heads fit on the fit span; (b)
- * "heads-updated": the same trees, heads updated on each window after scoring it;
- * (c) "trees-refit": trees refit and heads learned afresh on the files before the
- * window (see refitDays). Per (outcome, arm, window) it keeps NE, calibration, log
+ * "heads-updated": the same trees, heads updated day by day, each day file
+ * scored before they learn it; (c) "trees-refit": trees refit and heads learned
+ * afresh on the files before the window (see refitDays), once per window. Per (outcome, arm, window) it keeps NE, calibration, log
  * loss and rows. Every NE divides by the entropy of the fit span's positive rate
  * (He et al. 2014's training rate), one reference for all arms and windows, so
  * arms differ by log loss alone and the recovery shares are shares of log loss.
@@ -164,40 +164,45 @@ export async function runFreshnessStudy(
   for (const [w, window] of plan.windows.entries()) {
     const started = performance.now();
     const arms = new ArmAccumulators(outcomes, segmentColumn !== null);
-    const targets: WindowTarget[] = [
-      { scorer: frozen, sinks: sinksOf(arms.of("frozen")) },
-      {
-        scorer: hybridScorer(fitted.forests, state),
-        sinks: sinksOf(arms.of("heads-updated"), deployed),
-      },
-      { scorer: await refitArm(window), sinks: sinksOf(arms.of("trees-refit")) },
-      { scorer: null, constant: trainingRate, sinks: sinksOf(rateBaseline.sinks) },
-    ];
-    if (treesOnly !== null && treesBaseline !== null)
-      targets.push({ scorer: treesOnly, sinks: sinksOf(treesBaseline.sinks) });
-    if (hashed !== null && hashedBaseline !== null)
-      targets.push({
-        scorer: hybridScorer(hashedForests, hashed),
-        sinks: sinksOf(hashedBaseline.sinks),
-      });
+    const refit = await refitArm(window);
     const counts = new Float64Array(frozen.layout.leafCount);
-    const rows = await scoreWindow(window.files, schema, targets, {
-      ...scoreOptions,
-      leafCounts: { scorer: frozen, counts },
-    });
+    let rows = 0;
+    // Day by day, as heads are refreshed in production: every arm scores the day,
+    // then the updated heads (and the hashed-ids baseline) learn it.
+    for (const day of window.files) {
+      const targets: WindowTarget[] = [
+        { scorer: frozen, sinks: sinksOf(arms.of("frozen")) },
+        {
+          scorer: hybridScorer(fitted.forests, state),
+          sinks: sinksOf(arms.of("heads-updated"), deployed),
+        },
+        { scorer: refit, sinks: sinksOf(arms.of("trees-refit")) },
+        { scorer: null, constant: trainingRate, sinks: sinksOf(rateBaseline.sinks) },
+      ];
+      if (treesOnly !== null && treesBaseline !== null)
+        targets.push({ scorer: treesOnly, sinks: sinksOf(treesBaseline.sinks) });
+      if (hashed !== null && hashedBaseline !== null)
+        targets.push({
+          scorer: hybridScorer(hashedForests, hashed),
+          sinks: sinksOf(hashedBaseline.sinks),
+        });
+      rows += await scoreWindow([day], schema, targets, {
+        ...scoreOptions,
+        leafCounts: { scorer: frozen, counts },
+      });
+      await learnHeadsFromFiles([day], schema, config, fitted.forests, { ...heads, state });
+      if (hashed !== null)
+        await learnHeadsFromFiles([day], schema, config, hashedForests, {
+          ...heads,
+          state: hashed,
+        });
+    }
     rowsScored += rows;
     windowCounts.push(counts);
     const dictionary = segmentColumn === null ? undefined : dictionaries.get(segmentColumn);
     const scored = arms.figures(w, trainingRate, dictionary);
     figures.push(...scored.figures);
     segmentFigures.push(...scored.segmentFigures);
-    // Only now, after scoring, do the updated heads learn from the window.
-    await learnHeadsFromFiles(window.files, schema, config, fitted.forests, { ...heads, state });
-    if (hashed !== null)
-      await learnHeadsFromFiles(window.files, schema, config, hashedForests, {
-        ...heads,
-        state: hashed,
-      });
     const seconds = ((performance.now() - started) / 1000).toFixed(1);
     log(
       `window ${window.label}: ${rows} rows; NE frozen/heads updated/trees refit: ${neLine(scored.figures, outcomes)} (${seconds} s)`,

@@ -34,8 +34,7 @@ export function studyReportInput(
     },
     {
       name: "heads section",
-      value:
-        "frozen trees, heads updated after each window, scored on every window before learning it",
+      value: "frozen trees, heads updated day by day, each day scored before they learn it",
     },
     {
       name: "NE reference",
