@@ -12,12 +12,12 @@
  *
  * Target: >= 250,000 rows per second on the 2-core machine.
  *
- * Each measurement learns 4M rows (a day of a mid-size feed). A run pays about
- * 0.9 s here for starting workers, first touching ~200 MB of fresh state (slow
- * on this VM: ~4-6.5 ms per MB) and draining the last batch; over 1M rows that
- * is a fifth of the time, over 4M a twentieth. `--rows 1048576` measures the
- * short run (255k-262k rows/s on 2 workers at 05:55 UTC on 2026-12-02, against
- * 321k-332k over 4M rows).
+ * Each measurement learns 4M rows (a day of a mid-size feed). A run pays a
+ * fixed cost for starting workers, first touching ~200 MB of fresh state (slow
+ * on this VM: 4-6.5 ms per MB) and draining the last batch: about 1.1 s here,
+ * from 255k-262k rows/s on 2 workers over 1M rows against 321k-332k over 4M
+ * (05:55 UTC on 2026-12-02), so over a quarter of a 1M-row run and under a
+ * tenth of a 4M-row one. `--rows 1048576` measures the short run.
  *
  * Run: npm run bench:heads  (options: --rows N --batch N --workers N --hash-bits N --half-life N)
  */

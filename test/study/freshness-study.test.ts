@@ -61,7 +61,7 @@ beforeAll(async () => {
       // Every earlier file: the refit arm's heads see exactly the updated heads' rows,
       // so the two arms differ only in their trees.
       refitDays: "all",
-      // From the window after the change's on, the updated heads have learned post-layout days.
+      // Windows from the one after the change's: every day they score, the updated heads have learned post-layout days.
       driftFromDay: LAYOUT_DAY + WINDOW_DAYS,
       segmentColumn: "post_type",
       baselines: false,

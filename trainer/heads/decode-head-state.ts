@@ -59,6 +59,12 @@ export function decodeHeadState(bytes: Uint8Array, file = "<head state>"): HeadS
   }));
   if (issues.length > 0) throw new LeafcastError("heads", issues);
   const header = document as HeadStateHeader;
+  if (header.version !== version) {
+    fail(
+      "invalid_header",
+      `expected the header's version to be the file's, ${version}, found ${header.version}`,
+    );
+  }
   // Version 1 files predate averaging.
   const info = { ...header.info, averaging: header.info.averaging ?? null };
   const averaged = info.averaging !== null;

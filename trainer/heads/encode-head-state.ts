@@ -88,14 +88,16 @@ export function encodeHeadState(state: HeadState): Uint8Array {
   const nOut = new Float64Array(bytes.buffer, at, valueCount);
   at += 8 * valueCount;
   const averageOut = average === null ? null : new Float64Array(bytes.buffer, at, valueCount);
-  if (averageOut !== null) at += 8 * valueCount;
+  if (average !== null) at += 8 * valueCount;
   // A coordinate whose z and n are zero never had a gradient, so its average is zero too.
   for (let c = 0, k = 0; c < coordinateCount; c++) {
     if (!touched(z, n, c, heads)) continue;
     coordinates[k] = c;
     zOut.set(z.subarray(c * heads, (c + 1) * heads), k * heads);
     nOut.set(n.subarray(c * heads, (c + 1) * heads), k * heads);
-    averageOut?.set((average as Float64Array).subarray(c * heads, (c + 1) * heads), k * heads);
+    if (average !== null && averageOut !== null) {
+      averageOut.set(average.subarray(c * heads, (c + 1) * heads), k * heads);
+    }
     k++;
   }
   new Float64Array(bytes.buffer, at, heads * STAT_FIELDS).set(stats.overall);

@@ -1,7 +1,7 @@
 import { isSimdBlock, type TrainingBlock } from "./block-trainer.js";
 import { ftrlWeight } from "./ftrl-weight.js";
 import type { FtrlRule } from "./head-block.js";
-import { COORDINATE_PAGE_SHIFT } from "./head-state.js";
+import { COORDINATE_PAGE_SHIFT, type HeadState } from "./head-state.js";
 
 /** One snapshot to fold into the moving average of the weights (see weight-average.ts). */
 export interface WeightFold {
@@ -70,4 +70,23 @@ export function foldBlockWeights(block: TrainingBlock, rule: FtrlRule, fold: Wei
       }
     }
   }
+}
+
+/**
+ * The fold a runner is asked for: the state's average, with `share`; learnHeads
+ * asks for one whenever the row count reaches a multiple of averaging.everyRows,
+ * and moves averageMass on itself.
+ *
+ * @example
+ * await runner.fold(snapshotShare(everyRows, halfLifeRows)); // the runner calls weightFold(state, share)
+ */
+export function weightFold(state: HeadState, share: number): WeightFold {
+  if (state.average === null) throw new Error("weightFold: the state has no averaging");
+  return {
+    average: state.average,
+    heads: state.headCount,
+    coordinateCount: state.coordinateCount,
+    writtenPages: state.writtenPages,
+    share,
+  };
 }

@@ -1,5 +1,5 @@
 import { BlockTrainer, type HeadKernelChoice, type TrainingBlock } from "./block-trainer.js";
-import { foldBlockWeights } from "./fold-block-weights.js";
+import { foldBlockWeights, weightFold } from "./fold-block-weights.js";
 import { growBlockSlices } from "./grow-block-slices.js";
 import type { FtrlRule } from "./head-block.js";
 import type { HeadRunner } from "./head-runner.js";
@@ -9,7 +9,6 @@ import { makeFtrlRule } from "./make-ftrl-rule.js";
 import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { packLabels } from "./pack-labels.js";
-import { weightFold } from "./weight-average.js";
 
 /**
  * Trains every head on the calling thread: with the WebAssembly kernel on its

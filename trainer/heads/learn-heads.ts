@@ -1,5 +1,6 @@
 import { availableParallelism } from "node:os";
 import { CheckpointSchedule } from "../io/checkpoint-schedule.js";
+import type { HeadAveraging } from "../schema/load-training-config.js";
 import { checkHeadBatch } from "./check-head-batch.js";
 import { checkResume } from "./check-resume.js";
 import type { HeadKernelChoice } from "./block-trainer.js";
@@ -9,7 +10,6 @@ import { HeadState } from "./head-state.js";
 import { InlineHeadRunner } from "./inline-head-runner.js";
 import { sliceHeadBatch } from "./slice-head-batch.js";
 import { snapshotShare } from "./weight-average.js";
-import type { HeadAveraging } from "../schema/load-training-config.js";
 import { SEPARATE_BLOCKS, WorkerHeadRunner } from "./worker-head-runner.js";
 
 /**

@@ -67,7 +67,11 @@ export function resolveHeadStateInfo(setup: HeadSetup): HeadStateInfo {
     }
   });
   if (s.averaging !== null) {
-    for (const [name, value] of Object.entries(s.averaging)) {
+    const { halfLifeRows, everyRows } = s.averaging;
+    for (const [name, value] of [
+      ["halfLifeRows", halfLifeRows],
+      ["everyRows", everyRows],
+    ] as const) {
       if (!Number.isSafeInteger(value) || value < 1) {
         bad("bad_setting", `averaging.${name} expected a whole number >= 1, found ${value}`);
       }

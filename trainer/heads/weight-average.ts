@@ -1,4 +1,3 @@
-import type { WeightFold } from "./fold-block-weights.js";
 import { ftrlWeight } from "./ftrl-weight.js";
 import type { HeadState } from "./head-state.js";
 import { makeFtrlRule } from "./make-ftrl-rule.js";
@@ -48,30 +47,15 @@ export function snapshotShare(rows: number, halfLifeRows: number): number {
 }
 
 /**
- * What a runner needs to fold the latest weights into the state's average with
- * `share` (fold-block-weights.ts); learnHeads asks for a fold whenever the row
- * count reaches a multiple of averaging.everyRows, and moves averageMass on.
- *
- * @example
- * await runner.fold(snapshotShare(everyRows, halfLifeRows));
- */
-export function weightFold(state: HeadState, share: number): WeightFold {
-  if (state.average === null) throw new Error("weightFold: the state has no averaging");
-  return {
-    average: state.average,
-    heads: state.headCount,
-    coordinateCount: state.coordinateCount,
-    writtenPages: state.writtenPages,
-    share,
-  };
-}
-
-/**
  * The weight each coordinate is exported with. Without averaging, the latest
- * weight. With it, the moving average brought up to the state's row count (the
- * latest weights folded in with the share of the rows since the last snapshot)
- * and divided by its mass, so that the snapshots' shares sum to 1 even early in
- * a run. Reads the state only.
+ * weight. With it, where the latest weight is non-zero, the moving average
+ * brought up to the state's row count (the latest weights folded in with the
+ * share of the rows since the last snapshot) and divided by its mass, so that
+ * the snapshots' shares sum to 1 even early in a run; where L1 has set the
+ * latest weight to zero, zero. L1 thus still decides which features a head
+ * keeps (an average only decays towards zero and would keep every coordinate
+ * ever used), and averaging smooths the values of those it keeps. Reads the
+ * state only.
  *
  * @example
  * const weightOf = exportedWeightOf(state);
@@ -86,7 +70,9 @@ export function exportedWeightOf(state: HeadState): (coordinate: number, head: n
   const mass = state.averageMass + share * (1 - state.averageMass);
   if (mass === 0) return latest;
   return (coordinate, head) => {
+    const w = latest(coordinate, head);
+    if (w === 0) return 0;
     const a = average[coordinate * heads + head];
-    return (a + share * (latest(coordinate, head) - a)) / mass;
+    return (a + share * (w - a)) / mass;
   };
 }

@@ -6,7 +6,7 @@ import {
   type HeadKernelChoice,
   type TrainingBlock,
 } from "./block-trainer.js";
-import { foldBlockWeights } from "./fold-block-weights.js";
+import { foldBlockWeights, weightFold } from "./fold-block-weights.js";
 import { growBlockSlices } from "./grow-block-slices.js";
 import type { FtrlRule } from "./head-block.js";
 import type { HeadRunner } from "./head-runner.js";
@@ -18,7 +18,6 @@ import { makeTrainingBlocks } from "./make-training-blocks.js";
 import { mergeTrainingBlocks } from "./merge-training-blocks.js";
 import { SharedBatchBuffers } from "./shared-batch-buffers.js";
 import { copyMarkedPages, settleSimdMerge } from "./simd/merge-simd-head-block.js";
-import { weightFold } from "./weight-average.js";
 
 /** Whether workers get their own copies of their heads' arrays under trainHeadBlock: measured in bench/heads.ts. */
 export const SEPARATE_BLOCKS = true;
