@@ -44,9 +44,11 @@ import { plotlineDays, plotlineSchema } from "./pipeline-fixtures.js";
 // - The latest weights' level follows the last few thousand rows: with ~360
 //   active leaf coordinates per row, their per-coordinate steps add up. Exported
 //   as they were, held-out calibration went 0.957-1.052 (react) and 0.961-1.025
-//   (open). A moving average with a half-life of 20,000 rows (half a day) gave
-//   0.969-1.026 and 0.989-1.020, at a cost of under 0.07 NE points; 40,000 to
-//   120,000 rows did no better.
+//   (open). A moving average with a half-life of 20,000 rows (half a day,
+//   snapshots every 2,500) gave 0.965-1.029 and 0.995-1.018, at a cost of under
+//   0.07 NE points; half-lives of 40,000 to 120,000 rows (snapshots every 4,000)
+//   did no better. Two held-out days carry up to 2 % of label noise in react's
+//   observed rate, hence four held out here.
 // - Under "recalibrate", a head whose predictions are less spread than the truth
 //   is pulled down by the shift into the low-rate region (Jensen): downsampled
 //   react runs 0-2 % below the same run with all negatives.
