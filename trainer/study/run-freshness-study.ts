@@ -82,12 +82,12 @@ export interface FreshnessStudy {
 
 /**
  * The freshness study: replays day files in windows and scores every window,
- * outcome by outcome, with three arms, none of which has learned from the window
+ * outcome by outcome, with three arms, none of which has learned from the day
  * it is scored on: (a) "frozen": trees and heads fit on the fit span; (b)
  * "heads-updated": the same trees, heads updated day by day, each day file
  * scored before they learn it; (c) "trees-refit": trees refit and heads learned
- * afresh on the files before the window (see refitDays), once per window. Per (outcome, arm, window) it keeps NE, calibration, log
- * loss and rows. Every NE divides by the entropy of the fit span's positive rate
+ * afresh on the files before the window (see refitDays), once per window. Per
+ * (outcome, arm, window) it keeps NE, calibration, log loss and rows. Every NE divides by the entropy of the fit span's positive rate
  * (He et al. 2014's training rate), one reference for all arms and windows, so
  * arms differ by log loss alone and the recovery shares are shares of log loss.
  * It also measures the frozen trees' leaf PSI per window (tree staleness), the
