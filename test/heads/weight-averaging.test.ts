@@ -105,7 +105,7 @@ describe("weight averaging", () => {
   });
 
   it("averages to the same bits on 0 to 3 threads, with either kernel", async () => {
-    // Five heads: WebAssembly blocks of 4 + 1 lanes (one padding lane), JavaScript blocks of views or copies.
+    // Five heads: WebAssembly blocks of 4 + 1 heads (the second with a padding lane), JavaScript blocks of views or copies.
     const outcomes = ["open", "react", "reply", "save", "hide"];
     const five = syntheticDays(9, 2, 2000, outcomes.length);
     const setup = headSetup(outcomes, syntheticIndexSize(), {
