@@ -14,6 +14,14 @@
  * EXP_NEG_STEP[1]; // 2^(-1/64)
  */
 
+/** 64 / ln 2: m = round(-a * EXP_NEG_ROUND_SCALE) for exp(a), a <= 0. */
+export const EXP_NEG_ROUND_SCALE = 92.33248261689366;
+/** ln 2 / 64 split as in fdlibm (ln2_hi / 64, ln2_lo / 64), so r = a + m ln2/64 keeps its digits. */
+export const LN2_OVER_64_HI = 0.01083042469326756;
+export const LN2_OVER_64_LO = 2.9815858269852933e-12;
+/** Below this a, exp(a) is 0 in doubles (exp(-745) is the last subnormal). */
+export const EXP_NEG_MIN_ARG = -745;
+
 /** 2^(-j/64), j = 0..63. */
 export const EXP_NEG_STEP: Float64Array = Float64Array.from({ length: 64 }, (_, j) =>
   Math.pow(2, -j / 64),

@@ -1,3 +1,10 @@
+import {
+  EXP_NEG_MIN_ARG,
+  EXP_NEG_ROUND_SCALE,
+  LN2_OVER_64_HI,
+  LN2_OVER_64_LO,
+} from "../logistic-tables.js";
+
 /**
  * The WebAssembly text of the gradient functions of the tree kernel (see
  * treeKernelWat): `gradients(score, label, validation, out, position, start, end,
@@ -104,12 +111,12 @@ ${LOAD_SUMS}
       (local.set $y (f64.convert_i32_u (i32.load8_u (i32.add (local.get $label) (local.get $r)))))
       (local.set $a (f64.neg (f64.abs (local.get $s))))
       (local.set $e ${f64(0)})
-      (if (f64.ge (local.get $a) ${f64(-745)}) (then
+      (if (f64.ge (local.get $a) ${f64(EXP_NEG_MIN_ARG)}) (then
         (local.set $m (i32.trunc_f64_s
-          (f64.add (f64.mul (f64.neg (local.get $a)) ${f64(92.33248261689366)}) ${f64(0.5)})))
+          (f64.add (f64.mul (f64.neg (local.get $a)) ${f64(EXP_NEG_ROUND_SCALE)}) ${f64(0.5)})))
         (local.set $x (f64.add
-          (f64.add (local.get $a) (f64.mul (f64.convert_i32_s (local.get $m)) ${f64(0.01083042469326756)}))
-          (f64.mul (f64.convert_i32_s (local.get $m)) ${f64(2.9815858269852933e-12)})))
+          (f64.add (local.get $a) (f64.mul (f64.convert_i32_s (local.get $m)) ${f64(LN2_OVER_64_HI)}))
+          (f64.mul (f64.convert_i32_s (local.get $m)) ${f64(LN2_OVER_64_LO)})))
         (local.set $e (f64.mul (f64.mul
           ${expPolynomial("f64", "(local.get $x)")}
           (f64.load (i32.add (local.get $step) (i32.shl (i32.and (local.get $m) (i32.const 63)) (i32.const 3)))))
@@ -159,12 +166,12 @@ ${LOAD_SUMS}
         (f64.convert_i32_u (i32.load8_u offset=1 (i32.add (local.get $label) (local.get $r))))))
       (local.set $av (f64x2.neg (f64x2.abs (local.get $sv))))
       (local.set $mi (i32x4.min_s (i32x4.trunc_sat_f64x2_s_zero
-        (f64x2.add (f64x2.mul (f64x2.neg (local.get $av)) ${f64x2(92.33248261689366)}) ${f64x2(0.5)}))
+        (f64x2.add (f64x2.mul (f64x2.neg (local.get $av)) ${f64x2(EXP_NEG_ROUND_SCALE)}) ${f64x2(0.5)}))
         (i32x4.splat (i32.const 68800))))
       (local.set $mv (f64x2.convert_low_i32x4_s (local.get $mi)))
       (local.set $xv (f64x2.add
-        (f64x2.add (local.get $av) (f64x2.mul (local.get $mv) ${f64x2(0.01083042469326756)}))
-        (f64x2.mul (local.get $mv) ${f64x2(2.9815858269852933e-12)})))
+        (f64x2.add (local.get $av) (f64x2.mul (local.get $mv) ${f64x2(LN2_OVER_64_HI)}))
+        (f64x2.mul (local.get $mv) ${f64x2(LN2_OVER_64_LO)})))
       (local.set $m (i32x4.extract_lane 0 (local.get $mi)))
       (local.set $m1 (i32x4.extract_lane 1 (local.get $mi)))
       (local.set $ev (f64x2.mul (f64x2.mul
@@ -175,7 +182,7 @@ ${LOAD_SUMS}
           (f64x2.replace_lane 1
             (f64x2.splat (f64.load (i32.add (local.get $pow2) (i32.shl (i32.shr_s (local.get $m) (i32.const 6)) (i32.const 3)))))
             (f64.load (i32.add (local.get $pow2) (i32.shl (i32.shr_s (local.get $m1) (i32.const 6)) (i32.const 3)))))))
-      (local.set $ev (v128.and (local.get $ev) (f64x2.ge (local.get $av) ${f64x2(-745)})))
+      (local.set $ev (v128.and (local.get $ev) (f64x2.ge (local.get $av) ${f64x2(EXP_NEG_MIN_ARG)})))
       (local.set $iv (f64x2.div ${f64x2(1)} (f64x2.add ${f64x2(1)} (local.get $ev))))
       (local.set $pv (v128.bitselect (local.get $iv) (f64x2.mul (local.get $ev) (local.get $iv))
         (f64x2.ge (local.get $sv) ${f64x2(0)})))
