@@ -1,5 +1,5 @@
 import { isSimdBlock, type TrainingBlock } from "./block-trainer.js";
-import { ftrlWeight } from "./ftrl-weight.js";
+import { ruleWeight } from "./ftrl-weight.js";
 import type { FtrlRule } from "./head-block.js";
 import { COORDINATE_PAGE_SHIFT, type HeadState } from "./head-state.js";
 
@@ -51,19 +51,9 @@ export function foldBlockWeights(block: TrainingBlock, rule: FtrlRule, fold: Wei
     if (marks !== null && writtenPages[page] === 0 && marks[page] === 0) continue;
     const end = Math.min(coordinateCount, (page + 1) * pageSize);
     for (let c = page * pageSize; c < end; c++) {
-      const bias = c === rule.biasCoordinate;
-      const lambda1 = bias ? 0 : rule.lambda1;
-      const lambda2 = bias ? 0 : rule.lambda2;
       const from = c * zStride + zOffset;
       for (let j = 0; j < count; j++) {
-        const w = ftrlWeight(
-          z[from + j],
-          Math.sqrt(n[from + nGap + j]),
-          invAlpha,
-          rule.beta,
-          lambda1,
-          lambda2,
-        );
+        const w = ruleWeight(rule, invAlpha, c, z[from + j], n[from + nGap + j]);
         const at = c * heads + first + j;
         const a = average[at];
         if (w !== 0 || a !== 0) average[at] = a + share * (w - a);

@@ -1,4 +1,4 @@
-import { ftrlWeight } from "./ftrl-weight.js";
+import { ruleWeight } from "./ftrl-weight.js";
 import type { HeadState } from "./head-state.js";
 import { makeFtrlRule } from "./make-ftrl-rule.js";
 
@@ -11,20 +11,12 @@ import { makeFtrlRule } from "./make-ftrl-rule.js";
  * latest(state.biasCoordinate, 0); // the first head's bias
  */
 export function latestWeightOf(state: HeadState): (coordinate: number, head: number) => number {
-  const { z, n, headCount: heads, biasCoordinate } = state;
+  const { z, n, headCount: heads } = state;
   const rule = makeFtrlRule(state.info);
   const invAlpha = 1 / rule.alpha;
   return (coordinate, head) => {
     const at = coordinate * heads + head;
-    const bias = coordinate === biasCoordinate;
-    return ftrlWeight(
-      z[at],
-      Math.sqrt(n[at]),
-      invAlpha,
-      rule.beta,
-      bias ? 0 : rule.lambda1,
-      bias ? 0 : rule.lambda2,
-    );
+    return ruleWeight(rule, invAlpha, coordinate, z[at], n[at]);
   };
 }
 
