@@ -17,17 +17,18 @@ export function exportHeadModels(state: HeadState): HeadModel[] {
   const { info } = state;
   const weightOf = exportedWeightOf(state);
   return info.outcomes.map((outcome, h): HeadModel => {
-    let count = 0;
-    for (let c = 0; c < info.indexSize; c++) if (weightOf(c, h) !== 0) count++;
-    const index = new Int32Array(count);
-    const weight = new Float64Array(count);
-    for (let c = 0, k = 0; c < info.indexSize; c++) {
+    // One pass: every weight is computed once (with averaging, that is an average and a latest weight).
+    const indexes: number[] = [];
+    const weights: number[] = [];
+    for (let c = 0; c < info.indexSize; c++) {
       const w = weightOf(c, h);
       if (w !== 0) {
-        index[k] = c;
-        weight[k++] = w;
+        indexes.push(c);
+        weights.push(w);
       }
     }
+    const index = Int32Array.from(indexes);
+    const weight = Float64Array.from(weights);
     const bias = weightOf(state.biasCoordinate, h);
     const recalibrated = info.downsampleCorrection === "recalibrate";
     return {
